@@ -1,1 +1,1 @@
-"""cli stage."""
+"""The command line: `measureport check`, `run` and `demo` (entry point :func:`main.main`)."""

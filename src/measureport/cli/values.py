@@ -1,0 +1,54 @@
+"""How one result value is written: in CSV and plain tables, and as a JSON value."""
+
+from __future__ import annotations
+
+import datetime as dt
+import math
+from decimal import Decimal
+
+import numpy as np
+
+JsonValue = None | bool | int | float | str
+
+
+def normalize(value: object) -> object:
+    """The Python value behind an engine's value (numpy scalars, decimals, timestamps at midnight)."""
+    if isinstance(value, np.generic):
+        value = value.item()
+    if isinstance(value, Decimal):
+        exponent = value.as_tuple().exponent
+        return int(value) if isinstance(exponent, int) and exponent >= 0 else float(value)
+    return value
+
+
+def cell_text(value: object) -> str:
+    """The text of a value: integers without a point, floats in Python's shortest repr, dates in ISO
+    form, booleans as ``true``/``false``, null as the empty text."""
+    value = normalize(value)
+    if value is None:
+        return ""
+    if isinstance(value, bool):
+        return "true" if value else "false"
+    if isinstance(value, float):
+        return repr(value)
+    if isinstance(value, dt.date):
+        return value.isoformat()
+    return str(value)
+
+
+def json_value(value: object) -> JsonValue:
+    """A value JSON can hold: dates as ISO text, null for null and for a float that is not finite."""
+    value = normalize(value)
+    if value is None or isinstance(value, bool | int | str):
+        return value
+    if isinstance(value, float):
+        return value if math.isfinite(value) else None
+    if isinstance(value, dt.date):
+        return value.isoformat()
+    return str(value)
+
+
+def is_number(value: object) -> bool:
+    """True for numbers (booleans are not numbers here)."""
+    value = normalize(value)
+    return isinstance(value, int | float) and not isinstance(value, bool)
