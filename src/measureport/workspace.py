@@ -91,10 +91,12 @@ def _as_names(names: str | Sequence[str]) -> tuple[str, ...]:
 class Workspace:
     """A loaded model with its measures bound; the dataset is read on first use."""
 
-    def __init__(self, model: Model, bound: BoundModel) -> None:
+    def __init__(self, model: Model, bound: BoundModel, dataset: Dataset | None = None) -> None:
+        """A workspace over an already bound model; ``dataset`` (when given) replaces reading the
+        model's data files. Most callers want :meth:`open`."""
         self.model = model
         self.bound = bound
-        self._dataset: Dataset | None = None
+        self._dataset = dataset
         self._engines: dict[str, Engine] = {}
 
     @classmethod
@@ -171,15 +173,18 @@ class Workspace:
 
 
 class ReferenceEngine:
-    """The reference evaluator as an engine: slow, obviously correct, the oracle for the others."""
+    """The reference evaluator as an engine: slow, obviously correct, the oracle for the others.
+    One evaluator serves every query of the workspace, so its caches carry over between queries."""
 
     def __init__(self, workspace: Workspace) -> None:
-        self._workspace = workspace
+        from measureport.reference.evaluator import Evaluator
+
+        self._evaluator = Evaluator(workspace.bound, workspace.dataset)
 
     def run(self, query: Query) -> ResultTable:
-        from measureport.reference.evaluator import evaluate
+        from measureport.reference.evaluator import evaluate_with
 
-        return evaluate(self._workspace.bound, self._workspace.dataset, query)
+        return evaluate_with(self._evaluator, query)
 
 
 register_engine("reference", ReferenceEngine)

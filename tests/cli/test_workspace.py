@@ -1,4 +1,4 @@
-"""The engine registry and the workspace's dispatch to engines, on a hand-made empty model."""
+"""The engine registry and the workspace's dispatch to engines, on hand-made models (invented data)."""
 
 from __future__ import annotations
 
@@ -7,10 +7,12 @@ from pathlib import Path
 import pytest
 
 from measureport.errors import MeasureportError
+from measureport.language import ast
 from measureport.model.schema import Model
 from measureport.query import Query, ResultTable
-from measureport.semantics.bound import BoundModel
+from measureport.semantics.bound import BoundMeasure, BoundModel
 from measureport.workspace import Workspace, engine_factory, engine_names, register_engine
+from support.modelbuild import make
 
 
 class CountingEngine:
@@ -70,3 +72,20 @@ def test_workspace_as_context_manager_closes_engines() -> None:
     with empty_workspace() as workspace:
         engine = workspace.engine("counting-test")
     assert isinstance(engine, CountingEngine) and engine.closed
+
+
+def test_reference_engine_answers_through_the_workspace() -> None:
+    # Invented data: four rides, one of them from station 9, which does not exist (an orphan).
+    model, dataset = make(
+        {
+            "rides": {"ride_id": [1, 2, 3, 4], "station_id": [1, 1, 2, 9]},
+            "stations": {"station_id": [1, 2], "name": ["Quay", "Mill"]},
+        },
+        keys={"stations": "station_id"},
+        relationships=["rides.station_id -> stations.station_id"],
+    )
+    rides = BoundMeasure("rides", ast.Aggregate("count", ast.TableRef("rides")), "number", ())
+    workspace = Workspace(model, BoundModel(model, {"rides": rides}), dataset)
+    result = workspace.run(Query(("rides",), by=(ast.ColumnRef("stations", "name"),)))
+    # By hand: Mill has ride 3, Quay rides 1 and 2, the orphan groups under the empty member, last.
+    assert result.rows == [("Mill", 1), ("Quay", 2), (None, 1)]
