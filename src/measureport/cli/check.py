@@ -38,4 +38,8 @@ def check(model: str) -> None:
     click.echo("data:")
     for finding in findings:
         click.echo(f"  {finding.render()}")
-    click.echo(f"no errors, {_count(len(warnings), 'warning')}")
+    with_orphans = sum(1 for finding in findings if finding.orphans)
+    click.echo(
+        f"no errors, {_count(len(warnings), 'warning')}, "
+        f"{_count(with_orphans, 'relationship')} with orphan rows"
+    )

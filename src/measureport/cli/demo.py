@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import shlex
 from pathlib import Path
 
 import click
@@ -11,7 +12,6 @@ from measureport.cli.progress import working
 from measureport.workspace import DEFAULT_ENGINE, Workspace, engine_factory
 
 DEFAULT_DIR = "measureport-demo"
-MODEL_FILE = "model.yaml"
 
 
 @click.command()
@@ -25,7 +25,7 @@ def demo(directory: Path, rides: int, force: bool, engine: str) -> None:
     """Write the bike-share example to DIRECTORY (default ./measureport-demo) and show what its
     measures answer."""
     from measureport.demo.showcase import SHOWCASE
-    from measureport.demo.writer import write_demo
+    from measureport.demo.writer import MODEL_FILE, write_demo
 
     engine_factory(engine)
     with working(f"writing the example with {rides} rides"):
@@ -42,5 +42,7 @@ def demo(directory: Path, rides: int, force: bool, engine: str) -> None:
             click.echo()
             echo_result(result, "table", item.totals, title=f"{number}. {item.title}")
             click.echo(item.explanation)
-    click.echo()
-    click.echo(f"next: measureport run {model} -m MEASURES --by TABLE.COLUMN")
+    if SHOWCASE:
+        again = ["measureport", "run", str(model), *SHOWCASE[0].run_arguments()]
+        click.echo()
+        click.echo(f"ask your own questions, starting from: {shlex.join(again)}")
