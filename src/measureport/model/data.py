@@ -22,6 +22,7 @@ from measureport.model.datafiles import (
     open_file,
     plain_read_error,
 )
+from measureport.model.integers import IntegerValueError, to_int64
 from measureport.model.schema import DataType, Model, Table
 from measureport.model.tabledata import ColumnData, Dataset, TableData
 
@@ -60,7 +61,15 @@ def read_table(
             raise plain_read_error(exc, types) from None
     except DataReadError as exc:
         raise _read_error(table, exc) from None
-    columns = {name: column_data(fetched[name], kind) for name, kind in types.items()}
+    columns: dict[str, ColumnData] = {}
+    for name, kind in types.items():
+        try:
+            columns[name] = column_data(fetched[name], kind)
+        except IntegerValueError as exc:
+            message = (
+                f"the value {describe_value(exc.value)} in column {name} (data row {exc.row}) {exc.reason}"
+            )
+            raise _read_error(table, DataReadError(message, column=name)) from None
     n_rows = len(next(iter(fetched.values()))) if fetched else 0
     return TableData(table.name, n_rows, columns)
 
@@ -70,13 +79,12 @@ def column_data(raw: npt.NDArray[Any], data_type: DataType) -> ColumnData:
     null = np.ma.getmaskarray(raw).copy()
     data = np.ma.getdata(raw)
     values: npt.NDArray[Any]
-    if data_type.kind == "number":
-        dtype = np.int64 if data_type.sql in ("integer", "bigint") else np.float64
-        values = np.where(null, 0, data).astype(dtype)
+    if data_type.sql in ("integer", "bigint"):
+        values = to_int64(data, null, data_type)
+    elif data_type.kind == "number":
+        values = np.where(null, 0, data).astype(np.float64)
     elif data_type.kind == "text":
-        values = np.array(
-            ["" if missing else str(v) for v, missing in zip(data, null, strict=True)], dtype=object
-        )
+        values = np.where(null, "", data).astype(object)
     elif data_type.kind == "date":
         values = data.astype("datetime64[D]")
         values[null] = np.datetime64(0, "D")
@@ -100,7 +108,9 @@ def check_key(table: Table, data: TableData) -> None:
     if repeated.any():
         earliest = int(np.argmin(np.where(repeated, first_index, len(column.values))))
         others = int(repeated.sum()) - 1
-        also = f" ({others} other value{'s' if others != 1 else ''} also repeat)" if others else ""
+        also = ""
+        if others:
+            also = " (1 other value also repeats)" if others == 1 else f" ({others} other values also repeat)"
         raise MeasureportError(
             f"{table.name}.{table.key} has duplicate values: {describe_value(distinct[earliest])} appears "
             f"{int(counts[earliest])} times{also}; {rule}",

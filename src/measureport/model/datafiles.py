@@ -1,8 +1,8 @@
 """Reading data files and engine tables with DuckDB, and turning DuckDB's errors into plain ones.
 
 CSV files are read with a header line and DuckDB's detection of the delimiter and quoting; an
-empty field, quoted or not, is null. Parquet files are read as they are, each column cast to the
-model's type.
+empty field, quoted or not, is null. Parquet files and engine tables are read as they are, each
+column cast to the model's type (integers excepted: see :func:`fetch_type`).
 """
 
 from __future__ import annotations
@@ -20,8 +20,14 @@ from measureport.model.typenames import duckdb_name
 FileFormat = Literal["csv", "parquet"]
 
 _FORMATS: dict[str, FileFormat] = {".csv": "csv", ".parquet": "parquet"}
+_INTEGER_TYPES = frozenset(
+    ("TINYINT", "SMALLINT", "INTEGER", "BIGINT", "HUGEINT", "UTINYINT", "USMALLINT", "UINTEGER", "UBIGINT")
+)
 _CSV_LINE = re.compile(r"CSV Error on Line: (\d+)")
-_CONVERSION = re.compile(r"""Could not convert string ["'](.*?)["'] to '?(\w+)'?""")
+_CONVERSIONS = (
+    re.compile(r"""Could not convert string ["'](?P<value>.*?)["'] to '?(?P<kind>\w+)'?"""),
+    re.compile(r"""invalid (?P<kind>\w+) field format: ["'](?P<value>.*?)["']"""),
+)
 _CSV_COLUMN = re.compile(r'converting column "([^"]+)"|casting from source column (\w+)')
 
 
@@ -43,10 +49,13 @@ def file_format(source: str) -> FileFormat | None:
 def read_file_columns(
     connection: duckdb.DuckDBPyConnection, path: Path, fmt: FileFormat
 ) -> list[tuple[str, str]]:
-    """The columns of a data file in file order, each with the DuckDB type read from the data."""
+    """The columns of a data file in file order, each with the DuckDB type read from the data.
+
+    For a CSV file DuckDB judges the types from a sample of rows (its default); a later row that
+    does not fit is an error when the data is loaded, with a hint to declare the column's type."""
     try:
         if fmt == "csv":
-            relation = connection.read_csv(str(path), header=True, sample_size=-1)
+            relation = connection.read_csv(str(path), header=True)
         else:
             relation = connection.read_parquet(str(path))
         return [(name, str(kind)) for name, kind in zip(relation.columns, relation.types, strict=True)]
@@ -60,10 +69,10 @@ def open_file(
     fmt: FileFormat,
     columns: Mapping[str, DataType],
 ) -> duckdb.DuckDBPyRelation:
-    """A relation over a data file with every column read as its model type."""
+    """A relation over a data file with every column read as :func:`fetch_type` says."""
     try:
         if fmt == "csv":
-            types = {name: duckdb_name(kind) for name, kind in columns.items()}
+            types = {name: fetch_type(kind, "VARCHAR") for name, kind in columns.items()}
             return connection.read_csv(str(path), header=True, columns=types)
         return cast_columns(connection.read_parquet(str(path)), columns)
     except duckdb.Error as exc:
@@ -73,7 +82,7 @@ def open_file(
 def open_engine_table(
     connection: duckdb.DuckDBPyConnection, name: str, columns: Mapping[str, DataType]
 ) -> duckdb.DuckDBPyRelation:
-    """A relation over a table of a connected DuckDB database, columns cast to their model types."""
+    """A relation over a table of a connected DuckDB database, columns read as :func:`fetch_type` says."""
     try:
         return cast_columns(connection.table(name), columns)
     except duckdb.Error as exc:
@@ -83,13 +92,33 @@ def open_engine_table(
 def cast_columns(
     relation: duckdb.DuckDBPyRelation, columns: Mapping[str, DataType]
 ) -> duckdb.DuckDBPyRelation:
-    """The model's columns of ``relation``, in model order, each cast to its model type."""
+    """The model's columns of ``relation``, in model order, each cast as :func:`fetch_type` says."""
+    missing = [name for name in columns if name not in relation.columns]
+    if missing:
+        raise DataReadError(f"there is no column {missing[0]}", column=missing[0])
+    stored = {name: str(kind) for name, kind in zip(relation.columns, relation.types, strict=True)}
     return relation.select(
         *(
-            duckdb.ColumnExpression(name).cast(duckdb.sqltype(duckdb_name(kind))).alias(name)
+            duckdb.ColumnExpression(name).cast(duckdb.sqltype(fetch_type(kind, stored[name]))).alias(name)
             for name, kind in columns.items()
         )
     )
+
+
+def fetch_type(data_type: DataType, stored: str) -> str:
+    """The DuckDB type to fetch a column as, given the type it is ``stored`` as.
+
+    DuckDB rounds when it casts text or fractions to an integer type ('3.50' becomes 4), so an
+    ``integer``/``bigint`` column stored as anything but an integer is fetched as text or as a
+    double, and converted strictly afterwards (see ``integers.py``).
+    """
+    if data_type.sql not in ("integer", "bigint") or stored in _INTEGER_TYPES:
+        return duckdb_name(data_type)
+    if stored == "VARCHAR":
+        return "VARCHAR"
+    if stored in ("FLOAT", "DOUBLE") or stored.startswith("DECIMAL"):
+        return "DOUBLE"
+    return duckdb_name(data_type)
 
 
 def plain_read_error(exc: duckdb.Error, columns: Mapping[str, DataType] | None = None) -> DataReadError:
@@ -100,9 +129,9 @@ def plain_read_error(exc: duckdb.Error, columns: Mapping[str, DataType] | None =
     said = str(exc)
     line_match = _CSV_LINE.search(said)
     line = int(line_match.group(1)) if line_match else None
-    conversion = _CONVERSION.search(said)
+    conversion = next((m for m in (p.search(said) for p in _CONVERSIONS) if m), None)
     if conversion:
-        value, kind = conversion.group(1), conversion.group(2).lower()
+        value, kind = conversion.group("value"), conversion.group("kind").lower()
         found = _CSV_COLUMN.search(said)
         column = (found.group(1) or found.group(2)) if found else None
         if column is not None and columns is not None and column in columns:

@@ -11,6 +11,13 @@ is about. Choices where the contract is silent:
   ``integer``, BIGINT ``bigint``, DECIMAL ``decimal(p,s)``, FLOAT/DOUBLE ``double``, VARCHAR
   ``text``. A timestamp column is an error unless declared (``date`` keeps its day).
 - ``name`` and ``tables`` are required; ``relationships``, ``measures`` and ``views`` are not.
+  A view needs ``measures`` and ``by`` (``by: []`` is a view of grand totals).
+- A CSV file has a header line; DuckDB detects its delimiter and quoting and judges the types
+  from a sample of rows. An empty field, quoted or not, is null.
+- Integer columns are read strictly when the data is loaded: a fraction, a text or a value out
+  of range is an error, where DuckDB alone would round ('3.50' read as integer gives 4).
+- A table name cannot be a word of the measure language (``names.RESERVED_WORDS``).
+- A relationship joins two columns of the same kind (number, text, date, boolean).
 """
 
 from __future__ import annotations
