@@ -12,7 +12,9 @@ from pathlib import Path
 
 import pytest
 
-from measureport.errors import Diagnostic, MeasureportError, remember_source
+from measureport.errors import Diagnostic, MeasureportError
+from measureport.language import ast
+from measureport.language.parser import parse_measures
 from measureport.model.schema import (
     BOOLEAN,
     DATE,
@@ -27,6 +29,7 @@ from measureport.model.schema import (
     View,
     decimal,
 )
+from measureport.semantics.binder import bind_model
 from measureport.semantics.bound import BoundModel
 
 FILE = "bikes.measures"
@@ -85,17 +88,13 @@ def with_views(*views: View) -> Model:
     return replace(BIKES, views={view.name: view for view in views})
 
 
-def parse(text: str, file: str = FILE):  # type: ignore[no-untyped-def]
-    from measureport.language.parser import parse_measures
-
-    remember_source(file, text)
+def parse(text: str, file: str = FILE) -> ast.MeasureFile:
+    """Parse ``text`` as the measure file ``file``."""
     return parse_measures(text, file)
 
 
 def bind(text: str, model: Model = BIKES) -> BoundModel:
     """Parse and bind ``text`` as the one measure file of ``model``."""
-    from measureport.semantics.binder import bind_model
-
     return bind_model(model, [parse(text)])
 
 

@@ -4,14 +4,13 @@ from __future__ import annotations
 
 from measureport.errors import NO_SPAN, MeasureportError, remember_source
 from measureport.language import ast
+from measureport.language.parser import parse_expression, parse_measures
 from measureport.model.schema import Model
 from measureport.semantics.findings import Findings
 
 
 def read_measure_files(model: Model) -> list[ast.MeasureFile]:
     """Parse every measure file the model lists; all read and parse errors are raised together."""
-    from measureport.language.parser import parse_measures
-
     findings = Findings(file_order=[str(path) for path in model.measure_files])
     files: list[ast.MeasureFile] = []
     for index, path in enumerate(model.measure_files):
@@ -35,6 +34,4 @@ def read_measure_files(model: Model) -> list[ast.MeasureFile]:
 
 def parse_inline(text: str, file: str, line: int = 1, column: int = 1) -> ast.Expr:
     """Parse an expression given outside a measure file (a command-line option, a view entry)."""
-    from measureport.language.parser import parse_expression
-
     return parse_expression(text, file, line=line, column=column)
