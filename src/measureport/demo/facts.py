@@ -8,6 +8,7 @@ bikes ride longer and farther, and a fleet of new electric bikes arrives in Marc
 from __future__ import annotations
 
 import datetime as dt
+from dataclasses import dataclass
 
 import numpy as np
 import numpy.typing as npt
@@ -40,6 +41,7 @@ CLOSED_DAYS = (dt.date(2024, 12, 25), dt.date(2025, 12, 25))  # the network shut
 FESTIVAL = (dt.date(2025, 7, 10), dt.date(2025, 7, 20))  # the pop-up station's days
 FESTIVAL_SHARE = 0.08  # of the rides on festival days that start at the pop-up station
 LOAN_BIKE_SHARE = 0.0015
+LOAN_BIKE_SPEED_KMH = 12.0
 GROWTH_2025 = 1.18
 WEEKEND_DEMAND = 0.85
 
@@ -116,32 +118,54 @@ def _ratings(rng: np.random.Generator, electric: Flags, minutes: Ints) -> tuple[
     return np.clip(np.rint(mood), 1, 5).astype(np.int64), ~rated
 
 
+@dataclass(frozen=True)
+class BikePicks:
+    """The bike of each ride, and what the ride inherits from it."""
+
+    bike_id: Ints
+    electric: Flags
+    cargo: Flags
+    speed_kmh: Floats
+    rides_per_bike: Ints  # rides taken by each registered bike, in fleet order
+
+
+def _start_stations(rng: np.random.Generator, day: Days, pull: Floats) -> Ints:
+    """The start station of each ride: open on the ride's day; the pop-up during the festival."""
+    station_ids = np.array([s.station_id for s in STATIONS])
+    opened = np.array([s.opened for s in STATIONS], dtype="datetime64[D]")
+    station = _respecting_start(rng, draw.weighted_choice(rng, pull, day.size), pull, opened, day)
+    festival = (day >= np.datetime64(FESTIVAL[0])) & (day <= np.datetime64(FESTIVAL[1]))
+    pop_up = festival & draw.chance(rng, FESTIVAL_SHARE, day.size)
+    return np.where(pop_up, UNREGISTERED_STATION_ID, station_ids[station])
+
+
+def _bikes(rng: np.random.Generator, day: Days, fleet: Fleet) -> BikePicks:
+    """The bike of each ride: in service on the ride's day, or now and then a loan bike."""
+    n = day.size
+    bike_pull = np.array([BIKE_BATCHES[b].pull for b in fleet.batch])
+    bike = _respecting_start(rng, draw.weighted_choice(rng, bike_pull, n), bike_pull, fleet.commissioned, day)
+    loan = draw.chance(rng, LOAN_BIKE_SHARE, n)
+    loan_bikes = np.array(UNREGISTERED_BIKE_IDS)
+    loan_ids = loan_bikes[draw.weighted_choice(rng, np.ones(loan_bikes.size), n)]
+    batch = fleet.batch[bike]
+    return BikePicks(
+        bike_id=np.where(loan, loan_ids, fleet.bike_id[bike]),
+        electric=np.array([b.is_electric for b in BIKE_BATCHES])[batch] & ~loan,
+        cargo=np.array(["Cargo" in b.model for b in BIKE_BATCHES])[batch] & ~loan,
+        speed_kmh=np.where(loan, LOAN_BIKE_SPEED_KMH, np.array([b.speed_kmh for b in BIKE_BATCHES])[batch]),
+        rides_per_bike=np.bincount(bike[~loan], minlength=fleet.bike_id.size).astype(np.int64),
+    )
+
+
 def draw_rides(rng: np.random.Generator, n: int, days: Days, fleet: Fleet,
                pull: Floats) -> tuple[pa.Table, Ints]:
     """``n`` rides in time order, and how many rides each registered bike took."""
     day = days[draw.weighted_choice(rng, day_demand(rng, days), n)]
     weekend = weekday_numbers(day) >= 6
     hour = _hours(rng, weekend)
-
-    station_ids = np.array([s.station_id for s in STATIONS])
-    opened = np.array([s.opened for s in STATIONS], dtype="datetime64[D]")
-    station = _respecting_start(rng, draw.weighted_choice(rng, pull, n), pull, opened, day)
-    station_id = station_ids[station]
-    festival = (day >= np.datetime64(FESTIVAL[0])) & (day <= np.datetime64(FESTIVAL[1]))
-    station_id = np.where(festival & draw.chance(rng, FESTIVAL_SHARE, n), UNREGISTERED_STATION_ID,
-                          station_id)
-
-    bike_pull = np.array([BIKE_BATCHES[b].pull for b in fleet.batch])
-    bike = _respecting_start(rng, draw.weighted_choice(rng, bike_pull, n), bike_pull,
-                             fleet.commissioned, day)
-    rides_per_bike = np.bincount(bike, minlength=fleet.bike_id.size).astype(np.int64)
-    loan = draw.chance(rng, LOAN_BIKE_SHARE, n)
-    bike_id = np.where(loan, np.array(UNREGISTERED_BIKE_IDS)[draw.weighted_choice(rng, [1, 1, 1], n)],
-                       fleet.bike_id[bike])
-    batch = [BIKE_BATCHES[b] for b in range(len(BIKE_BATCHES))]
-    electric = np.array([b.is_electric for b in batch])[fleet.batch[bike]] & ~loan
-    cargo = np.array(["Cargo" in b.model for b in batch])[fleet.batch[bike]] & ~loan
-    speed = np.where(loan, 12.0, np.array([b.speed_kmh for b in batch])[fleet.batch[bike]])
+    station_id = _start_stations(rng, day, pull)
+    bikes = _bikes(rng, day, fleet)
+    electric, cargo, speed = bikes.electric, bikes.cargo, bikes.speed_kmh
 
     plan_id = _plans(rng, weekend, hour)
     month = day.astype("datetime64[M]").astype(np.int64) % 12 + 1
@@ -151,7 +175,8 @@ def draw_rides(rng: np.random.Generator, n: int, days: Days, fleet: Fleet,
     distance = np.rint(100 * minutes / 60 * speed * draw.lognormal(rng, 1.0, 0.18, n)).astype(np.int64)
     no_distance = draw.chance(rng, 0.015, n)  # the GPS unit dropped out
     fare = _fares(plan_id, minutes, electric)
-    payment = np.where(plan_id != PAY_AS_YOU_GO, 2, np.where(draw.chance(rng, 0.55, n), 0, 1))
+    card, app, pass_ = (PAYMENTS.index(p) for p in ("card", "app", "pass"))
+    payment = np.where(plan_id != PAY_AS_YOU_GO, pass_, np.where(draw.chance(rng, 0.55, n), card, app))
     no_payment = draw.chance(rng, 0.004, n)  # the payment record is missing
     rating, unrated = _ratings(rng, electric, minutes)
 
@@ -159,7 +184,7 @@ def draw_rides(rng: np.random.Generator, n: int, days: Days, fleet: Fleet,
     table = pa.table({
         "ride_id": col.integers(np.arange(1, n + 1)),
         "station_id": col.integers(station_id[order]),
-        "bike_id": col.integers(bike_id[order]),
+        "bike_id": col.integers(bikes.bike_id[order]),
         "plan_id": col.integers(plan_id[order]),
         "day": col.dates(day[order]),
         "start_hour": col.integers(hour[order]),
@@ -169,7 +194,7 @@ def draw_rides(rng: np.random.Generator, n: int, days: Days, fleet: Fleet,
         "payment": col.labels(payment[order], PAYMENTS, null=no_payment[order]),
         "rating": col.integers(rating[order], null=unrated[order]),
     })
-    return table, rides_per_bike
+    return table, bikes.rides_per_bike
 
 
 # Per kind: chance on a classic bike, on an electric one, median minutes, median parts cost (cents).
