@@ -26,13 +26,6 @@ class Equals(Filter):
 
 
 @dataclass(frozen=True)
-class SameRow(Filter):
-    """The rows identical to one row of ``table`` (row binding of a table iteration)."""
-
-    group: int
-
-
-@dataclass(frozen=True)
 class Holds(Filter):
     """A condition over the columns of ``table``, its outside values already computed."""
 

@@ -21,6 +21,7 @@ from measureport.language import ast
 from measureport.model.tabledata import Dataset
 from measureport.query import Query, ResultTable
 from measureport.reference import values as V
+from measureport.reference.cache import BoundedCache
 from measureport.reference.context import (
     Context,
     DayRange,
@@ -28,7 +29,6 @@ from measureport.reference.context import (
     Equals,
     Filter,
     Holds,
-    SameRow,
     equals,
 )
 from measureport.reference.prepared import PreparedData
@@ -61,7 +61,7 @@ class Frame:
         """This frame for some of its current rows only."""
         assert self.env is not None
         env = self.env.subset(positions)
-        local_values = {}
+        local_values: dict[str, tuple[Val, RowEnv | None]] = {}
         for name, (value, owner) in self.locals.items():
             if owner is self.env and isinstance(value, list):
                 local_values[name] = ([value[p] for p in positions], env)
@@ -97,10 +97,10 @@ class Evaluator:
     def __init__(self, bound: BoundModel, dataset: Dataset | PreparedData) -> None:
         self.bound = bound
         self.data = dataset if isinstance(dataset, PreparedData) else PreparedData(bound.model, dataset)
-        self._filter_masks: dict[Filter, Mask] = {}
-        self._visible: dict[tuple[str, frozenset[Filter]], Mask] = {}
+        self._filter_masks: BoundedCache[Filter, Mask] = BoundedCache(20_000)
+        self._visible: BoundedCache[tuple[str, frozenset[Filter]], Mask] = BoundedCache(20_000)
         self._closure: dict[str, frozenset[str]] = {}
-        self._measures: dict[tuple[str, Context], Any] = {}
+        self._measures: BoundedCache[tuple[str, Context], Any] = BoundedCache(200_000)
 
     # --- visibility -----------------------------------------------------------------------
 
@@ -115,8 +115,8 @@ class Evaluator:
         reach = self.closure(table)
         relevant = frozenset(f for f in ctx.filters if f.table in reach)
         key = (table, relevant)
-        cached = self._visible.get(key)
-        if cached is not None:
+        found, cached = self._visible.lookup(key)
+        if found and cached is not None:
             return cached
         t = self.data.tables[table]
         mask = np.ones(t.size, dtype=np.bool_)
@@ -127,7 +127,7 @@ class Evaluator:
                 mask &= self.filter_mask(f)
         for rel in self.data.relationships_from(table):
             mask &= self.visible(ctx, rel.one_table)[self.data.links[rel]]
-        self._visible[key] = mask
+        self._visible.put(key, mask)
         return mask
 
     def visible_rows(self, ctx: Context, table: str) -> npt.NDArray[np.int64]:
@@ -136,8 +136,8 @@ class Evaluator:
         return np.flatnonzero(self.visible(ctx, table)[:n])
 
     def filter_mask(self, f: Filter) -> Mask:
-        cached = self._filter_masks.get(f)
-        if cached is not None:
+        found, cached = self._filter_masks.lookup(f)
+        if found and cached is not None:
             return cached
         t = self.data.tables[f.table]
         if isinstance(f, Equals):
@@ -145,8 +145,6 @@ class Evaluator:
             codes, mapping = t.codes(column)
             code = mapping.get(f.value)
             mask = codes == code if code is not None else np.zeros(t.size, dtype=np.bool_)
-        elif isinstance(f, SameRow):
-            mask = t.row_groups == f.group
         elif isinstance(f, Holds):
             env = RowEnv(self.data, f.table, np.arange(t.size, dtype=np.int64))
             truth = _as_list(self.eval(f.condition, Frame(Context(), env)), t.size)
@@ -161,7 +159,7 @@ class Evaluator:
             mask = np.fromiter((v in f.days for v in vals), np.bool_, t.size)
         else:  # pragma: no cover - every filter kind is handled above
             raise TypeError(f)
-        self._filter_masks[f] = mask
+        self._filter_masks.put(f, mask)
         return mask
 
     def members(self, ctx: Context, columns: Sequence[tuple[str, str]], owner: str) -> list[tuple[Any, ...]]:
@@ -198,14 +196,17 @@ class Evaluator:
     def measure(self, name: str, ctx: Context) -> Any:
         """The value of measure ``name`` in ``ctx``."""
         key = (name, ctx)
-        if key not in self._measures:
-            self._measures[key] = self.eval(self.bound.measures[name].expr, Frame(ctx))
-        return self._measures[key]
+        found, value = self._measures.lookup(key)
+        if not found:
+            value = self.eval(self.bound.measures[name].expr, Frame(ctx))
+            self._measures.put(key, value)
+        return value
 
     def eval(self, node: ast.Expr, frame: Frame) -> Val:
         method = getattr(self, "_eval_" + type(node).__name__, None)
         if method is None:
-            raise MeasureportError(f"the reference evaluator cannot evaluate {type(node).__name__}", node.span)
+            kind = type(node).__name__
+            raise MeasureportError(f"the reference evaluator cannot evaluate {kind}", node.span)
         result: Val = method(node, frame)
         return result
 
@@ -607,7 +608,7 @@ def grid(evaluator: Evaluator, ctx: Context, by: Sequence[ast.ColumnRef]) -> lis
 
 
 def _sort_key(row: tuple[Any, ...], level: int) -> tuple[tuple[Any, ...], ...]:
-    key = []
+    key: list[tuple[Any, ...]] = []
     for i, v in enumerate(row):
         if i >= level:
             key.append((2,))

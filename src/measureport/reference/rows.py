@@ -8,7 +8,7 @@ from typing import Any
 
 import numpy as np
 
-from measureport.reference.context import Filter, SameRow, equals
+from measureport.reference.context import Filter, equals
 from measureport.reference.prepared import IntArray, PreparedData
 
 
@@ -60,7 +60,8 @@ class RowEnv:
     def subset(self, positions: Sequence[int]) -> RowEnv:
         """The same iteration restricted to some of its current rows."""
         if self.rows is not None:
-            return RowEnv(self.data, self.table, self.rows[np.asarray(positions, dtype=np.int64)], {}, self.parent)
+            chosen = self.rows[np.asarray(positions, dtype=np.int64)]
+            return RowEnv(self.data, self.table, chosen, {}, self.parent)
         combos = {k: [v[p] for p in positions] for k, v in self.combos.items()}
         return RowEnv(self.data, self.table, None, combos, self.parent)
 
@@ -79,6 +80,6 @@ class RowEnv:
         """The filters that bind the current row at ``position`` (rule 3)."""
         if self.rows is not None and self.table is not None:
             table = self.data.tables[self.table]
-            gid = int(table.row_groups[self.rows[position]])
-            return (SameRow(self.table, frozenset(table.values), gid),)
+            row = int(self.rows[position])
+            return tuple(equals(self.table, c, values[row]) for c, values in table.values.items())
         return tuple(equals(t, c, values[position]) for (t, c), values in self.combos.items())
