@@ -3,6 +3,8 @@ real `measureport` group's usage errors."""
 
 from __future__ import annotations
 
+import subprocess
+import sys
 from pathlib import Path
 
 import click
@@ -83,3 +85,34 @@ def test_usage_errors_are_exit_2() -> None:
     bad_format = runner.invoke(main, ["run", "model.yaml", "-m", "rides", "--format", "xml"])
     assert bad_format.exit_code == 2
     assert "'xml' is not one of" in bad_format.stderr
+
+
+CHATTY_PROGRAM = """
+import click
+from measureport.cli.failures import ReportingGroup
+
+@click.group(cls=ReportingGroup)
+def toy():
+    pass
+
+@toy.command()
+def chatty():
+    for n in range(200_000):
+        click.echo(f"line {n}")
+
+toy(["chatty"])
+"""
+
+
+def test_a_reader_that_stops_early_is_not_an_error() -> None:
+    # Like `measureport run ... | head -1`: the reader closes the pipe after one line.
+    process = subprocess.Popen(
+        [sys.executable, "-c", CHATTY_PROGRAM],
+        stdin=subprocess.DEVNULL, stdout=subprocess.PIPE, stderr=subprocess.PIPE,
+    )
+    assert process.stdout is not None and process.stderr is not None
+    assert process.stdout.readline() == b"line 0\n"
+    process.stdout.close()
+    stderr = process.stderr.read().decode()
+    assert process.wait(timeout=60) == 0
+    assert stderr == ""

@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import os
 import sys
 import traceback
 from typing import Any
@@ -18,6 +19,8 @@ EXIT_INTERNAL = 3
 
 def report_failure(error: BaseException, debug: bool) -> int:
     """Write ``error`` to stderr (with its traceback when ``debug``) and return the exit code for it."""
+    if isinstance(error, BrokenPipeError):
+        return _reader_went_away()
     if debug:
         traceback.print_exception(error, file=sys.stderr)
     if isinstance(error, MeasureportError):
@@ -31,6 +34,15 @@ def report_failure(error: BaseException, debug: bool) -> int:
     if not debug:
         click.echo("  this is a fault in measureport; run again with --debug to see where", err=True)
     return EXIT_INTERNAL
+
+
+def _reader_went_away() -> int:
+    """The reader of stdout stopped reading (``| head``): not a failure. Point stdout at the null
+    device so that Python's final flush does not complain either."""
+    devnull = os.open(os.devnull, os.O_WRONLY)
+    os.dup2(devnull, sys.stdout.fileno())
+    os.close(devnull)
+    return EXIT_OK
 
 
 class ReportingGroup(click.Group):

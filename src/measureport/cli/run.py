@@ -52,7 +52,7 @@ def run(
         workspace = Workspace.open(model)
     with workspace:
         query = workspace.query(measures, by, conditions, totals)
-        with working(f"computing {len(measures)} measure(s) on the {engine} engine"):
+        with working(f"computing {', '.join(measures)} on the {engine} engine"):
             result = workspace.run(query, engine)
     if len(result.by) == len(by):
         # The header names the grouping columns as the user wrote them in --by.
