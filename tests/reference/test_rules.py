@@ -9,6 +9,7 @@ from __future__ import annotations
 import datetime as dt
 
 import pytest
+
 from support.evaluate import as_dict, run
 from support.modelbuild import make
 
