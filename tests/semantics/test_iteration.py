@@ -193,3 +193,17 @@ def test_the_bound_tree_keeps_iterations_and_conditions() -> None:
         ),
         ast.Iteration(table=ast.TableRef("stations")),
     )
+
+
+def test_a_condition_whose_columns_all_have_row_values_is_ambiguous() -> None:
+    # Inside for each rides both stations.station_id and rides.start_station have row values,
+    # so neither table is clearly the one filtered.
+    assert one("  sum(trips given stations.station_id = rides.start_station for each rides)\n") == (
+        "a condition after given tests the columns of one table, but this one names columns of stations "
+        "and rides; to compare with a value of the current row, put that value in a let first",
+        (3, 19),
+    )
+
+
+def test_a_let_turns_a_row_value_into_a_constant_of_the_condition() -> None:
+    binds("sum(let s = rides.start_station (trips given stations.station_id = s) for each rides)")

@@ -46,10 +46,12 @@ def bind_filter(binder: ExpressionBinder, expr: ast.Expr, scope: Scope, usage: s
     elif len(free) == 1:
         table = free[0]
     else:
-        binder.findings.error(
-            f"{usage} tests the columns of one table, but this one names columns of {joined(free or tables)}",
-            expr.span,
+        message = (
+            f"{usage} tests the columns of one table, but this one names columns of {joined(free or tables)}"
         )
+        if not free:
+            message += "; to compare with a value of the current row, put that value in a let first"
+        binder.findings.error(message, expr.span)
         return BoundFilter(bound, None, ())
     return BoundFilter(bound, table, tuple(column for column in tested if column.table == table))
 
