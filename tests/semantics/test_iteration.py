@@ -207,3 +207,15 @@ def test_a_condition_whose_columns_all_have_row_values_is_ambiguous() -> None:
 
 def test_a_let_turns_a_row_value_into_a_constant_of_the_condition() -> None:
     binds("sum(let s = rides.start_station (trips given stations.station_id = s) for each rides)")
+
+
+def test_rank_over_an_unknown_column() -> None:
+    assert one("  rank(trips over stations.nam)\n") == (
+        "table stations has no column nam; did you mean name?",
+        (3, 28),  # after the 27 characters "  rank(trips over stations."
+    )
+
+
+def test_single_and_restricted_of_unknown_columns() -> None:
+    assert one("  single(bike.model)\n") == ("unknown table bike; did you mean bikes?", (3, 10))
+    assert one("  restricted(bikes.colour)\n") == ("table bikes has no column colour", (3, 20))

@@ -131,3 +131,13 @@ def test_measures_no_view_uses_are_reported() -> None:
 
 def test_without_views_no_measure_is_unused() -> None:
     assert warnings(MEASURES) == []
+
+
+def test_a_warning_renders_with_its_line_and_a_caret() -> None:
+    (found,) = warnings(TRIPS + "measure m = sum(count(rides) for each stations)\n")
+    # "measure m = sum(" is 16 characters; count(rides) is 12 characters long.
+    assert found.render().splitlines()[:3] == [
+        "bikes.measures:2:17: warning: " + found.message,
+        "  measure m = sum(count(rides) for each stations)",
+        "  " + " " * 16 + "^" * 12,
+    ]
