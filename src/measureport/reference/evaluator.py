@@ -122,11 +122,14 @@ class Evaluator:
         mask = np.ones(t.size, dtype=np.bool_)
         if t.is_dimension:
             mask[t.n_rows] = t.blank_exists
+        filtered = {f.table for f in relevant}
         for f in relevant:
             if f.table == table:
                 mask &= self.filter_mask(f)
         for rel in self.data.relationships_from(table):
-            mask &= self.visible(ctx, rel.one_table)[self.data.links[rel]]
+            # With no filter anywhere beyond it, every row of the one side is visible.
+            if filtered & self.closure(rel.one_table):
+                mask &= self.visible(ctx, rel.one_table)[self.data.links[rel]]
         self._visible.put(key, mask)
         return mask
 
