@@ -1,0 +1,561 @@
+"""Building: symbolic frames and their requests become relational nodes.
+
+A frame is built in *stages*: stage 0 is its base relation; a request whose inputs are frame
+columns of stage s at most is computed at stage s + 1 and left-joined back on the frame columns
+it is keyed by. Requests of one stage that read the same row set are fused into one aggregate.
+
+Row sets become: the table's rows, joined (left, so that orphan keys reach the empty member) to
+the tables their filters and values need; static filters as predicates; null-safe equalities on
+frame values as grouping keys (the aggregate is joined back on them); any other filter whose
+values come from the frame — a range of days, a set of shifted days, a condition with values
+computed outside a ``given`` — through *parameters*: the distinct parameter values of the frame,
+joined to the rows on the filter's predicate and grouped by.
+"""
+
+from __future__ import annotations
+
+from collections import defaultdict
+from collections.abc import Sequence
+from dataclasses import dataclass, field, replace
+
+from measureport.model.datafiles import file_format
+from measureport.model.graph import reachable
+from measureport.model.schema import Model
+from measureport.plan import dates
+from measureport.plan.context import CondFilter, EqFilter, Filter, ShiftFilter, TableCol, table_columns
+from measureport.plan.frames import AggRequest, Frame, IterRequest, RankRequest, Request, RowSet
+from measureport.plan.lower import Lowering
+from measureport.plan.names import Names
+from measureport.plan.nodes import (
+    Aggregate,
+    DenseRank,
+    Distinct,
+    Join,
+    NullRow,
+    OneRow,
+    PlanNode,
+    Project,
+    Scan,
+    UnionAll,
+)
+from measureport.plan.nodes import Filter as FilterNode
+from measureport.plan.scalar import (
+    AggCall,
+    And,
+    Arith,
+    Case,
+    Col,
+    Compare,
+    Const,
+    Exists,
+    IsNullTest,
+    NullSafeEq,
+    Or,
+    Scalar,
+    columns_used,
+    conjunction,
+    transform,
+)
+
+
+@dataclass
+class RowsRelation:
+    """A row set as a relation: ``keys`` pairs a relation column with the frame value it must
+    equal (null-safe) for the rows to belong to a frame row; ``columns`` names the relation
+    column of each table column; ``carried`` the relation column of each frame column read."""
+
+    node: PlanNode
+    keys: list[tuple[str, Scalar]]
+    columns: dict[TableCol, str]
+    carried: dict[str, str] = field(default_factory=dict)
+    uses_params: bool = False
+
+    def local(self, expr: Scalar) -> Scalar:
+        """``expr`` (over table columns and carried frame columns) over this relation's columns."""
+
+        def swap(node: Scalar) -> Scalar | None:
+            if isinstance(node, TableCol):
+                return Col(self.columns[node])
+            if isinstance(node, Col) and node.name in self.carried:
+                return Col(self.carried[node.name])
+            return None
+
+        return transform(expr, swap)
+
+
+@dataclass
+class Strategy:
+    """How one request became relational steps, in words, for ``explain``; ``group`` holds the
+    requests computed by the same step (fused), ``askers`` the measures behind each request."""
+
+    request: Request
+    words: str
+    group: list[Request] = field(default_factory=list)
+    askers: dict[int, list[str]] = field(default_factory=dict)
+
+    def shared_with(self) -> list[str]:
+        """Every measure whose values come from this step."""
+        found: list[str] = []
+        for request in self.group or [self.request]:
+            for measure in self.askers.get(id(request), []):
+                if measure not in found:
+                    found.append(measure)
+        return found
+
+
+class Builder:
+    """Builds the relations of one compiled query."""
+
+    def __init__(self, lowering: Lowering, names: Names) -> None:
+        self.lowering = lowering
+        self.model: Model = lowering.model
+        self.names = names
+        self._stages: dict[int, int] = {}
+        self._empty_exists: dict[str, Scalar] = {}
+        self.strategies: list[Strategy] = []
+
+    # --- stages ---------------------------------------------------------------------------
+
+    def stage_of_column(self, frame: Frame, column: str) -> int:
+        owner = self.lowering.owner.get(column)
+        if owner is not frame:
+            return 0
+        for request in frame.requests:
+            if request.out == column:
+                return self.stage_of(frame, request)
+        return 0
+
+    def stage_of(self, frame: Frame, request: Request) -> int:
+        found = self._stages.get(id(request))
+        if found is None:
+            reads = request.frame_columns()
+            found = 1 + max((self.stage_of_column(frame, c) for c in reads), default=0)
+            self._stages[id(request)] = found
+        return found
+
+    # --- frames ---------------------------------------------------------------------------------
+
+    def build_frame(self, frame: Frame, base: PlanNode) -> PlanNode:
+        """``base`` with a column for every request of ``frame``."""
+        by_stage: dict[int, list[Request]] = defaultdict(list)
+        for request in frame.requests:
+            by_stage[self.stage_of(frame, request)].append(request)
+        relation = base
+        for stage in sorted(by_stage):
+            before = relation
+            groups: dict[RowSet, list[AggRequest]] = {}
+            others: list[Request] = []
+            for request in by_stage[stage]:
+                direct = self._direct(request) if isinstance(request, IterRequest) else None
+                if isinstance(request, AggRequest) or direct is not None:
+                    agg = direct if direct is not None else request
+                    assert isinstance(agg, AggRequest)
+                    groups.setdefault(agg.rows, []).append(agg)
+                else:
+                    others.append(request)
+            for rows, requests in groups.items():
+                relation = self._join_aggregate(frame, relation, before, rows, requests)
+            for request in others:
+                if isinstance(request, IterRequest):
+                    relation = self._join_iteration(frame, relation, before, request)
+                elif isinstance(request, RankRequest):
+                    relation = self._join_rank(frame, relation, before, request)
+        return relation
+
+    def _join_back(
+        self, frame_rel: PlanNode, part: PlanNode, keys: Sequence[tuple[str, Scalar]], outs: list[tuple[str, str]]
+    ) -> PlanNode:
+        """``frame_rel`` left-joined to ``part`` where each key column equals its frame value."""
+        items: list[tuple[str, Scalar]] = []
+        conditions: list[Scalar] = []
+        for local, frame_value in keys:
+            name = self.names.fresh("key")
+            items.append((name, Col(local)))
+            conditions.append(NullSafeEq(frame_value, Col(name)))
+        items += [(out, Col(local)) for out, local in outs]
+        renamed = Project(part, tuple(items))
+        condition = conjunction(conditions) or Const(True, "boolean")
+        return Join(frame_rel, renamed, "left", condition)
+
+    def _join_aggregate(
+        self, frame: Frame, relation: PlanNode, before: PlanNode, rows: RowSet, requests: list[AggRequest]
+    ) -> PlanNode:
+        carried = sorted(set().union(*(columns_used(r.value) for r in requests)))
+        wanted = set().union(*(table_columns(r.value) for r in requests))
+        rr = self.rows_relation(rows, before, carried, wanted)
+        keys = [(f"k{i}", Col(local)) for i, (local, _) in enumerate(rr.keys)]
+        values = []
+        for i, request in enumerate(requests):
+            value = rr.local(request.value)
+            if not keys:
+                value = _guard_empty(value)
+            values.append((f"v{i}", value))
+        node = Aggregate(rr.node, tuple(keys), tuple(values), label=_agg_label(rows))
+        words = self._describe_rows(rows, rr)
+        for request in requests:
+            self.strategies.append(Strategy(request, words, list(requests), self.lowering.askers))
+        outs = [(r.out, f"v{i}") for i, r in enumerate(requests)]
+        frame_keys = [(f"k{i}", value) for i, (_, value) in enumerate(rr.keys)]
+        return self._join_back(relation, node, frame_keys, outs)
+
+    def _direct(self, request: IterRequest) -> AggRequest | None:
+        """An iteration whose body reads only its current row (and values of enclosing frames)
+        is one aggregate over the row set, with no frame of its own."""
+        child = request.child
+        if child.requests or child.children or child.rows is None:
+            return None
+        back = {name: TableCol(t, c) for (t, c), name in child.env.items()}
+        if child.weight is not None:
+            used = columns_used(request.argument)
+            if request.where is not None:
+                used |= columns_used(request.where)
+            if child.weight in used:
+                return None
+
+        def to_rows(expr: Scalar) -> Scalar:
+            return transform(expr, lambda n: back.get(n.name) if isinstance(n, Col) else None)
+
+        argument = to_rows(request.argument)
+        where = to_rows(request.where) if request.where is not None else None
+        distinct = child.iterated if child.kind == "columns" else None
+        rows = replace(child.rows, where=where, distinct=distinct)
+        value = _plain_aggregate(request.function, argument)
+        return AggRequest(request.out, rows, value, request.description)
+
+    def _join_iteration(
+        self, frame: Frame, relation: PlanNode, before: PlanNode, request: IterRequest
+    ) -> PlanNode:
+        child = request.child
+        child_rel = self.build_frame(child, self._child_base(child, before))
+        source = child_rel if request.where is None else FilterNode(child_rel, request.where)
+        value = _weighted_aggregate(request.function, request.argument, child.weight)
+        keys = [(f"k{i}", Col(name)) for i, name in enumerate(frame.key)]
+        if not keys:
+            value = _guard_empty(value)
+        node = Aggregate(source, tuple(keys), (("v", value),), label=child.label)
+        self.strategies.append(
+            Strategy(
+                request,
+                f"nested aggregation: {child.label} row by row, then {request.function} per row",
+                [request],
+                self.lowering.askers,
+            )
+        )
+        frame_keys = [(f"k{i}", Col(name)) for i, name in enumerate(frame.key)]
+        return self._join_back(relation, node, frame_keys, [(request.out, "v")])
+
+    def _join_rank(
+        self, frame: Frame, relation: PlanNode, before: PlanNode, request: RankRequest
+    ) -> PlanNode:
+        child = request.child
+        child_rel = self.build_frame(child, self._child_base(child, before))
+        ((_, member),) = child.env.items()
+        partition = tuple(Col(name) for name in frame.key)
+        ranked = DenseRank(child_rel, "rk", partition, request.value, request.ascending, label=child.label)
+        mine = FilterNode(ranked, NullSafeEq(Col(member), Col(request.current)))
+        self.strategies.append(
+            Strategy(
+                request, f"window: dense rank of each member, {child.label}", [request], self.lowering.askers
+            )
+        )
+        frame_keys = [(name, Col(name)) for name in frame.key]
+        return self._join_back(relation, mine, frame_keys, [(request.out, "rk")])
+
+    def _child_base(self, child: Frame, parent_rel: PlanNode) -> PlanNode:
+        """The parent frame's rows, each repeated for its current rows in ``child``."""
+        assert child.rows is not None
+        env = sorted(child.env.items(), key=lambda item: item[1])
+        wanted = {TableCol(t, c) for (t, c), _ in env}
+        rr = self.rows_relation(child.rows, parent_rel, [], wanted)
+        keys = [(f"k{i}", Col(local)) for i, (local, _) in enumerate(rr.keys)]
+        values = [(f"c{i}", Col(rr.columns[TableCol(t, c)])) for i, ((t, c), _) in enumerate(env)]
+        if child.kind == "table":
+            rows: PlanNode = Aggregate(rr.node, (*keys, *values), (("w", AggCall("count_rows")),))
+        else:
+            rows = Distinct(Project(rr.node, (*keys, *values)))
+        items: list[tuple[str, Scalar]] = []
+        conditions: list[Scalar] = []
+        for (local, _), (_, frame_value) in zip(keys, rr.keys, strict=True):
+            name = self.names.fresh("key")
+            items.append((name, Col(local)))
+            conditions.append(NullSafeEq(frame_value, Col(name)))
+        items += [(name, Col(f"c{i}")) for i, (_, name) in enumerate(env)]
+        if child.weight is not None:
+            items.append((child.weight, Col("w")))
+        renamed = Project(rows, tuple(items), label=child.label)
+        condition = conjunction(conditions)
+        if condition is None:
+            return Join(parent_rel, renamed, "cross")
+        return Join(parent_rel, renamed, "inner", condition)
+
+    # --- row sets -------------------------------------------------------------------------------
+
+    def rows_relation(
+        self, rows: RowSet, frame_rel: PlanNode | None, carried: list[str], wanted: set[TableCol]
+    ) -> RowsRelation:
+        """The relation of a row set for the frame relation ``frame_rel`` (see the module text)."""
+        filters = rows.filters
+        static = [f for f in filters if not f.frame_columns()]
+        equal = [f for f in filters if isinstance(f, EqFilter) and f.frame_columns()]
+        dynamic = [f for f in filters if f.frame_columns() and not isinstance(f, EqFilter)]
+        where_frame = columns_used(rows.where) if rows.where is not None else set()
+        needed = set(wanted)
+        for f in filters:
+            needed |= _filter_columns(f)
+        if rows.where is not None:
+            needed |= table_columns(rows.where)
+        if rows.distinct:
+            needed |= set(rows.distinct)
+        base, columns = self.base_rows(rows.table, rows.with_empty, needed)
+        static_preds = [_local_filter(f, columns, {}) for f in static]
+        use_params = bool(dynamic or carried or where_frame)
+        if not use_params:
+            node = base
+            keys: list[tuple[str, Scalar]] = []
+            for f in equal:
+                assert isinstance(f, EqFilter)
+                keys.append((columns[TableCol(f.table, f.column)], f.value))
+            predicate = conjunction(static_preds)
+            if predicate is not None:
+                node = FilterNode(node, predicate)
+            carried_map: dict[str, str] = {}
+        else:
+            assert frame_rel is not None
+            node, keys, carried_map = self._with_params(
+                base, columns, static_preds, equal, dynamic, carried, where_frame, frame_rel
+            )
+        rr = RowsRelation(node, keys, columns, carried_map, use_params)
+        if rows.where is not None:
+            rr.node = FilterNode(rr.node, rr.local(rows.where))
+        if rows.distinct is not None:
+            items: list[tuple[str, Scalar]] = [(local, Col(local)) for local, _ in rr.keys]
+            seen = {local for local, _ in rr.keys}
+            for tc in rows.distinct:
+                name = columns[tc]
+                if name not in seen:
+                    items.append((name, Col(name)))
+                    seen.add(name)
+            for name in carried_map.values():
+                if name not in seen:
+                    items.append((name, Col(name)))
+                    seen.add(name)
+            rr.node = Distinct(Project(rr.node, tuple(items)))
+        return rr
+
+    def _with_params(
+        self,
+        base: PlanNode,
+        columns: dict[TableCol, str],
+        static_preds: list[Scalar],
+        equal: Sequence[Filter],
+        dynamic: list[Filter],
+        carried: list[str],
+        where_frame: set[str],
+        frame_rel: PlanNode,
+    ) -> tuple[PlanNode, list[tuple[str, Scalar]], dict[str, str]]:
+        params: dict[Scalar, str] = {}
+
+        def param(value: Scalar) -> str:
+            if value not in params:
+                params[value] = f"p{len(params)}"
+            return params[value]
+
+        conditions: list[Scalar] = []
+        for f in equal:
+            assert isinstance(f, EqFilter)
+            conditions.append(NullSafeEq(Col(columns[TableCol(f.table, f.column)]), Col(param(f.value))))
+        shifts: list[tuple[RowsRelation, str, str]] = []
+        for f in dynamic:
+            if isinstance(f, ShiftFilter):
+                days, day_col = self._shifted_days(f, frame_rel)
+                for _, value in days.keys:
+                    param(value)
+                shifts.append((days, day_col, columns[TableCol(f.table, f.column)]))
+            else:
+                mapping = {c: param(Col(c)) for c in f.frame_columns()}
+                conditions.append(_local_filter(f, columns, mapping))
+        carried_map = {c: param(Col(c)) for c in carried}
+        for c in sorted(where_frame):
+            carried_map[c] = param(Col(c))
+        p_node: PlanNode = (
+            Distinct(Project(frame_rel, tuple((name, value) for value, name in params.items())))
+            if params
+            else OneRow()
+        )
+        for days, day_col, row_day in shifts:
+            renamed = {local: self.names.fresh("shift") for local, _ in days.keys}
+            day_name = self.names.fresh("day")
+            items = [(renamed[local], Col(local)) for local, _ in days.keys] + [(day_name, Col(day_col))]
+            moved = Project(days.node, tuple(items))
+            on = [NullSafeEq(Col(params[value]), Col(renamed[local])) for local, value in days.keys]
+            p_node = Join(p_node, moved, "inner", conjunction(on) or Const(True, "boolean"))
+            conditions.append(Compare("=", Col(row_day), Col(day_name)))
+        rows_node: PlanNode = base
+        predicate = conjunction(static_preds)
+        if predicate is not None:
+            rows_node = FilterNode(rows_node, predicate)
+        condition = conjunction(conditions) or Const(True, "boolean")
+        node = Join(p_node, rows_node, "inner", condition)
+        keys = [(name, value) for value, name in params.items()]
+        return node, keys, carried_map
+
+    def _shifted_days(self, f: ShiftFilter, frame_rel: PlanNode) -> tuple[RowsRelation, str]:
+        """The distinct days visible in the shift's source context, moved, per frame value."""
+        day = TableCol(f.table, f.column)
+        rows = RowSet(f.table, False, f.source.filters)
+        rr = self.rows_relation(rows, frame_rel, [], {day})
+        moved = dates.shift_date(Col(rr.columns[day]), f.offset, f.unit)
+        items: list[tuple[str, Scalar]] = [(local, Col(local)) for local, _ in rr.keys]
+        items.append(("day", moved))
+        node = Distinct(FilterNode(Project(rr.node, tuple(items)), IsNullTest(Col("day"), negated=True)))
+        return RowsRelation(node, rr.keys, {}), "day"
+
+    def base_rows(
+        self, table: str, with_empty: bool, needed: set[TableCol]
+    ) -> tuple[PlanNode, dict[TableCol, str]]:
+        """The rows of ``table`` (and its empty member when ``with_empty``), left-joined along the
+        relationships to every table whose columns are ``needed``."""
+        paths = reachable(self.model, table)
+        relationships = []
+        for tc in sorted(needed, key=str):
+            for rel in paths[tc.table]:
+                if rel not in relationships:
+                    relationships.append(rel)
+        own: dict[str, list[str]] = defaultdict(list)
+
+        def want(t: str, c: str) -> None:
+            if c not in own[t]:
+                own[t].append(c)
+
+        for tc in sorted(needed, key=str):
+            want(tc.table, tc.column)
+        for rel in relationships:
+            want(rel.many_table, rel.many_column)
+            want(rel.one_table, rel.one_column)
+        columns = {TableCol(t, c): self.names.of_column(t, c) for t, cols in own.items() for c in cols}
+        node = self._scan(table, own[table], with_empty)
+        for rel in sorted(relationships, key=lambda r: len(paths[r.one_table])):
+            right = self._scan(rel.one_table, own[rel.one_table], False)
+            on = Compare(
+                "=",
+                Col(columns[TableCol(rel.many_table, rel.many_column)]),
+                Col(columns[TableCol(rel.one_table, rel.one_column)]),
+            )
+            node = Join(node, right, "left", on)
+        return node, columns
+
+    def _scan(self, table: str, cols: list[str], with_empty: bool) -> PlanNode:
+        spec = self.model.tables[table]
+        if not cols:
+            cols = [next(iter(spec.columns))]
+        relation = self._relation(table)
+        items = tuple((self.names.of_column(table, c), c) for c in cols)
+        scan = Scan(table, relation, items, label=table)
+        if not with_empty:
+            return scan
+        typed = tuple((name, spec.columns[c].type.sql) for name, c in items)
+        empty = FilterNode(NullRow(typed, label=f"empty member of {table}"), self.empty_member_exists(table))
+        return UnionAll((scan, empty), label=f"{table} with its empty member")
+
+    def empty_member_exists(self, table: str) -> Scalar:
+        """True when some row points at ``table``'s empty member: a many-side row whose key is null
+        or unmatched, or the empty member of a table pointing here (it points at this one's)."""
+        found = self._empty_exists.get(table)
+        if found is not None:
+            return found
+        tests: list[Scalar] = []
+        for rel in self.model.relationships_to(table):
+            many = self.names.of_column(rel.many_table, rel.many_column)
+            one = self.names.of_column(rel.one_table, rel.one_column)
+            joined = Join(
+                Scan(rel.many_table, self._relation(rel.many_table), ((many, rel.many_column),)),
+                Scan(table, self._relation(table), ((one, rel.one_column),)),
+                "left",
+                Compare("=", Col(many), Col(one)),
+            )
+            tests.append(Exists(FilterNode(joined, IsNullTest(Col(one)))))
+            if any(r.one_table == rel.many_table for r in self.model.relationships):
+                tests.append(self.empty_member_exists(rel.many_table))
+        found = tests[0] if len(tests) == 1 else Or(tuple(tests)) if tests else Const(False, "boolean")
+        self._empty_exists[table] = found
+        return found
+
+    def _relation(self, table: str) -> tuple[str, ...]:
+        """How SQL names a table: by its model name, or by its ``from:`` when that names a table
+        on a connected engine (``schema.table``)."""
+        spec = self.model.tables[table]
+        if spec.path is not None or file_format(spec.source) is not None:
+            return (table,)
+        return tuple(spec.source.split("."))
+
+    def _describe_rows(self, rows: RowSet, rr: RowsRelation) -> str:
+        parts = [f"aggregate of {rows.table}"]
+        if rr.keys and not rr.uses_params:
+            parts.append("grouped by the keys it is filtered on, joined back to the frame")
+        elif rr.uses_params:
+            parts.append("per parameter values of the frame (correlated predicate), joined back")
+        else:
+            parts.append("one value for every row (no filter depends on the row)")
+        return "; ".join(parts)
+
+
+def _filter_columns(f: Filter) -> set[TableCol]:
+    if isinstance(f, EqFilter):
+        return {TableCol(f.table, f.column)}
+    if isinstance(f, CondFilter):
+        return table_columns(f.predicate)
+    if isinstance(f, ShiftFilter):
+        return {TableCol(f.table, f.column)}
+    raise TypeError(f)
+
+
+def _local_filter(f: Filter, columns: dict[TableCol, str], params: dict[str, str]) -> Scalar:
+    """A filter's predicate over a row relation (``params`` maps frame columns to parameters)."""
+
+    def swap(node: Scalar) -> Scalar | None:
+        if isinstance(node, TableCol):
+            return Col(columns[node])
+        if isinstance(node, Col):
+            return Col(params[node.name])
+        return None
+
+    if isinstance(f, EqFilter):
+        return transform(NullSafeEq(TableCol(f.table, f.column), f.value), swap)
+    if isinstance(f, CondFilter):
+        return transform(f.predicate, swap)
+    raise TypeError(f)
+
+
+def _plain_aggregate(function: str, argument: Scalar) -> Scalar:
+    mapping = {"sum": "sum", "mean": "mean", "min": "min", "max": "max", "count": "count"}
+    if function == "distinct":
+        return AggCall("count_distinct", argument)
+    return AggCall(mapping[function], argument)  # type: ignore[arg-type]
+
+
+def _weighted_aggregate(function: str, argument: Scalar, weight: str | None) -> Scalar:
+    """``function`` over per-row values where each row stands for ``weight`` identical rows."""
+    if weight is None:
+        return _plain_aggregate(function, argument)
+    w = Col(weight)
+    present = IsNullTest(argument, negated=True)
+    if function == "sum":
+        return AggCall("sum", Arith("*", argument, w))
+    if function == "count":
+        return AggCall("sum", Case(((present, w),), Const(0, "number")))
+    if function == "mean":
+        return Arith("/", AggCall("sum", Arith("*", argument, w)), AggCall("sum", Case(((present, w),))))
+    return _plain_aggregate(function, argument)
+
+
+def _guard_empty(value: Scalar) -> Scalar:
+    """An aggregate without grouping keys has one row even over no rows: make it null there
+    (rule 5; counts would say 0)."""
+    return Case(((Compare(">", AggCall("count_rows"), Const(0, "number")), value),))
+
+
+def _agg_label(rows: RowSet) -> str:
+    return f"aggregate of {rows.table}"
+
+
+__all__ = ["And", "Builder", "RowsRelation"]

@@ -1,0 +1,103 @@
+"""Plans as indented text: one line per node, children indented below it; a node used again is
+printed once and then referred to by its number."""
+
+from __future__ import annotations
+
+from measureport.plan import nodes as N
+from measureport.plan import scalar as S
+from measureport.plan.context import TableCol
+
+_OPS = {"count_rows": "count(*)", "count_distinct": "count distinct", "mean": "mean"}
+
+
+def scalar_text(expr: S.Scalar) -> str:
+    """A short readable form of a plan scalar."""
+    match expr:
+        case S.Col(name=name):
+            return name
+        case TableCol():
+            return str(expr)
+        case S.Const(value=None):
+            return "null"
+        case S.Const(value=str() as text):
+            return '"' + text.replace('"', '""') + '"'
+        case S.Const(value=value):
+            return str(value).lower() if isinstance(value, bool) else str(value)
+        case S.TypedNull(sql=sql):
+            return f"null::{sql}"
+        case S.Arith(op=op, left=left, right=right):
+            return f"({scalar_text(left)} {op} {scalar_text(right)})"
+        case S.Compare(op=op, left=left, right=right):
+            return f"{scalar_text(left)} {op} {scalar_text(right)}"
+        case S.NullSafeEq(left=left, right=right):
+            return f"{scalar_text(left)} <=> {scalar_text(right)}"
+        case S.And(items=items):
+            return "(" + " and ".join(scalar_text(i) for i in items) + ")"
+        case S.Or(items=items):
+            return "(" + " or ".join(scalar_text(i) for i in items) + ")"
+        case S.Not(operand=operand):
+            return f"not {scalar_text(operand)}"
+        case S.AggCall(func=func, argument=None):
+            return _OPS.get(func, func) if func == "count_rows" else f"{func}()"
+        case S.AggCall(func=func, argument=argument) if argument is not None:
+            return f"{_OPS.get(func, func)}({scalar_text(argument)})"
+        case S.Case(whens=whens, otherwise=otherwise):
+            parts = " ".join(f"when {scalar_text(c)} then {scalar_text(v)}" for c, v in whens)
+            return f"case {parts} else {scalar_text(otherwise)} end"
+        case S.Exists():
+            return "exists(...)"
+    children = ", ".join(scalar_text(c) for c in expr.children())
+    return f"{type(expr).__name__.lower()}({children})"
+
+
+def _describe(node: N.PlanNode) -> str:
+    label = f" [{node.label}]" if node.label else ""
+    match node:
+        case N.Scan(table=table, items=items):
+            return f"Scan {table}{label}: " + ", ".join(col for _, col in items)
+        case N.OneRow():
+            return "One row"
+        case N.NullRow(items=items):
+            return f"Null row{label}: " + ", ".join(name for name, _ in items)
+        case N.Filter(predicate=predicate):
+            return f"Filter{label}: {scalar_text(predicate)}"
+        case N.Project(items=items):
+            shown = ", ".join(n if S.Col(n) == v else f"{n} = {scalar_text(v)}" for n, v in items)
+            return f"Project{label}: {shown}"
+        case N.Join(kind=kind, condition=condition):
+            on = f" on {scalar_text(condition)}" if condition is not None else ""
+            return f"Join {kind}{label}{on}"
+        case N.Aggregate(keys=keys, values=values):
+            by = ", ".join(f"{n} = {scalar_text(v)}" for n, v in keys) or "nothing"
+            what = ", ".join(f"{n} = {scalar_text(v)}" for n, v in values)
+            return f"Aggregate{label} by {by}: {what}"
+        case N.Distinct():
+            return f"Distinct{label}"
+        case N.DenseRank(name=name, value=value, ascending=ascending):
+            order = "ascending" if ascending else "descending"
+            return f"Dense rank{label}: {name} of {scalar_text(value)} {order}"
+        case N.UnionAll():
+            return f"Union all{label}"
+        case N.Result(items=items):
+            return "Result: " + ", ".join(n for n, _ in items)
+    return type(node).__name__
+
+
+def format_plan(root: N.PlanNode) -> str:
+    """The plan under ``root`` as an indented tree."""
+    lines: list[str] = []
+    numbers: dict[N.PlanNode, int] = {}
+
+    def visit(node: N.PlanNode, depth: int) -> None:
+        pad = "  " * depth
+        seen = numbers.get(node)
+        if seen is not None:
+            lines.append(f"{pad}(#{seen}, shown above)")
+            return
+        numbers[node] = len(numbers) + 1
+        lines.append(f"{pad}#{numbers[node]} {_describe(node)}")
+        for child in node.inputs():
+            visit(child, depth + 1)
+
+    visit(root, 0)
+    return "\n".join(lines)
