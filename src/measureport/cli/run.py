@@ -6,9 +6,11 @@ import dataclasses
 
 import click
 
+from measureport.cli.layout import TOTALS_COLUMN
 from measureport.cli.options import FORMATS, model_argument, split_list
 from measureport.cli.output import echo_result
 from measureport.cli.progress import working
+from measureport.errors import MeasureportError
 from measureport.workspace import DEFAULT_ENGINE, Workspace, engine_factory
 
 
@@ -48,6 +50,12 @@ def run(
     measures = split_list(measure_lists, "-m")
     by = split_list(by_lists, "--by")
     engine_factory(engine)
+    if totals and fmt != "table" and TOTALS_COLUMN in measures:
+        raise MeasureportError(
+            f"with --totals the {fmt} output has a column named {TOTALS_COLUMN}, so the measure "
+            f"{TOTALS_COLUMN} cannot be printed beside it",
+            hint="use --format table, or run it without --totals",
+        )
     with working("reading the model"):
         workspace = Workspace.open(model)
     with workspace:
