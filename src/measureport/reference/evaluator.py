@@ -350,7 +350,12 @@ class Evaluator:
         assert isinstance(arg, ast.ColumnRef)
         rows = self.visible_rows(ctx, arg.table)
         vals = self.data.tables[arg.table].values[arg.column][rows].tolist()
-        return V.aggregate(node.function, vals)
+        result = V.aggregate(node.function, vals)
+        scale = self.bound.model.tables[arg.table].columns[arg.column].type.scale
+        if scale is not None and node.function == "sum" and isinstance(result, float):
+            # A sum of decimals has the column's scale: undo the binary rounding of the floats.
+            return round(result, scale)
+        return result
 
     def _iterate(self, node: ast.Aggregate, frame: Frame) -> Any:
         iteration = node.iteration
