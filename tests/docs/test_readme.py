@@ -2,7 +2,6 @@
 
 from __future__ import annotations
 
-import re
 from pathlib import Path
 
 from measureport.language.parser import parse_measures
@@ -11,8 +10,17 @@ ROOT = Path(__file__).resolve().parents[2]
 
 
 def _readme_measure_blocks() -> list[str]:
-    text = (ROOT / "README.md").read_text(encoding="utf-8")
-    blocks = re.findall(r"```\n(.*?)```", text, flags=re.DOTALL)
+    blocks: list[str] = []
+    current: list[str] | None = None
+    for line in (ROOT / "README.md").read_text(encoding="utf-8").splitlines():
+        if line.startswith("```"):
+            if current is None:
+                current = []
+            else:
+                blocks.append("\n".join(current) + "\n")
+                current = None
+        elif current is not None:
+            current.append(line)
     return [b for b in blocks if b.lstrip().startswith("measure ")]
 
 
