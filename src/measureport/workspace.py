@@ -6,6 +6,7 @@
     query = ws.query(["rides", "revenue"], by=["stations.name"], where=["calendar.year = 2025"])
     result = ws.run(query)                 # the reference evaluator
     result.columns, result.rows
+    print(ws.compile(query, "duckdb").sql)  # the same question as SQL
 
 Engines are looked up by name in a registry. An engine adapter registers itself with
 :func:`register_engine` when the package ``measureport.engines`` is imported (the workspace imports
@@ -30,6 +31,7 @@ from measureport.errors import MeasureportError
 from measureport.query import Query, ResultTable
 
 if TYPE_CHECKING:
+    from measureport.compile import CompiledQuery
     from measureport.model.schema import Model
     from measureport.model.tabledata import Dataset
     from measureport.semantics.bound import BoundModel
@@ -141,6 +143,13 @@ class Workspace:
         from measureport.semantics.binder import view_query
 
         return view_query(self.bound, view)
+
+    def compile(self, query: Query, dialect: str = "duckdb") -> CompiledQuery:
+        """The SQL of ``query`` in ``dialect``: ``.sql`` is the statement, ``.explain()`` tells how
+        each measure became SQL."""
+        from measureport.compile import compile_query
+
+        return compile_query(self.bound, query, dialect)
 
     def engine(self, name: str = DEFAULT_ENGINE) -> Engine:
         """The engine ``name`` for this workspace, built on first use."""

@@ -9,6 +9,7 @@ from measureport.cli.check import check
 from measureport.cli.demo import demo
 from measureport.cli.failures import ReportingGroup
 from measureport.cli.run import run
+from measureport.cli.sql import explain, sql
 
 
 @click.group(cls=ReportingGroup, context_settings={"help_option_names": ["-h", "--help"]})
@@ -20,4 +21,6 @@ def main(debug: bool) -> None:
 
 main.add_command(check)
 main.add_command(run)
+main.add_command(sql)
+main.add_command(explain)
 main.add_command(demo)
