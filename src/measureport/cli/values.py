@@ -4,16 +4,17 @@ from __future__ import annotations
 
 import datetime as dt
 import math
+import sys
 from decimal import Decimal
-
-import numpy as np
 
 JsonValue = None | bool | int | float | str
 
 
 def normalize(value: object) -> object:
-    """The Python value behind an engine's value (numpy scalars, decimals, timestamps at midnight)."""
-    if isinstance(value, np.generic):
+    """The Python value behind an engine's value (numpy scalars, decimals)."""
+    # A numpy scalar can only exist once numpy is loaded; not importing it keeps start-up quick.
+    numpy = sys.modules.get("numpy")
+    if numpy is not None and isinstance(value, numpy.generic):
         value = value.item()
     if isinstance(value, Decimal):
         exponent = value.as_tuple().exponent
