@@ -12,7 +12,7 @@ from rich.console import Console
 
 from measureport.cli.formats import csv_field, to_csv, to_json
 from measureport.cli.tables import to_plain_table, to_rich_table
-from measureport.cli.values import cell_text, json_value
+from measureport.cli.values import cell_text, display_text, json_value
 from measureport.query import ResultTable
 
 # Invented: rides and revenue by district and month, with a null district (the empty member).
@@ -48,6 +48,18 @@ def test_cell_text_follows_the_number_rules() -> None:
     assert cell_text(None) == ""
     assert cell_text(True) == "true"
     assert cell_text(dt.date(2025, 3, 1)) == "2025-03-01"
+
+
+def test_display_text_rounds_floats_for_people() -> None:
+    # Tables show at most four decimals, trailing zeros dropped; tiny values keep three
+    # significant digits so they do not read as zero. Integers and text are unchanged.
+    assert display_text(0.3967035025285634) == "0.3967"
+    assert display_text(3920.7599999999998) == "3920.76"
+    assert display_text(60.0) == "60"
+    assert display_text(-0.00004) == "-4e-05"
+    assert display_text(0.0) == "0"
+    assert display_text(123456789) == "123456789"
+    assert display_text("0.39670350") == "0.39670350"
 
 
 def test_engine_values_are_normalised() -> None:

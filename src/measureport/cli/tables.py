@@ -6,7 +6,7 @@ from rich.table import Table
 from rich.text import Text
 
 from measureport.cli.layout import ROLLED_UP, rolled_up, row_level
-from measureport.cli.values import cell_text, is_number
+from measureport.cli.values import display_text, is_number
 from measureport.query import ResultTable
 
 _GAP = "  "
@@ -14,7 +14,7 @@ _GAP = "  "
 
 def _display_cells(result: ResultTable) -> list[list[str]]:
     return [
-        [ROLLED_UP if rolled_up(result, i, j) else cell_text(value) for j, value in enumerate(row)]
+        [ROLLED_UP if rolled_up(result, i, j) else display_text(value) for j, value in enumerate(row)]
         for i, row in enumerate(result.rows)
     ]
 

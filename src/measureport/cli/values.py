@@ -37,6 +37,19 @@ def cell_text(value: object) -> str:
     return str(value)
 
 
+def display_text(value: object) -> str:
+    """The text of a value for people reading a table: like :func:`cell_text`, but a float is
+    shown with at most four decimals (three significant digits when it is smaller than 0.001).
+    CSV and JSON keep every digit."""
+    value = normalize(value)
+    if isinstance(value, float) and math.isfinite(value):
+        if value == 0 or abs(value) >= 0.001:
+            text = f"{value:.4f}".rstrip("0").rstrip(".")
+            return "0" if text in ("-0", "") else text
+        return f"{value:.3g}"
+    return cell_text(value)
+
+
 def json_value(value: object) -> JsonValue:
     """A value JSON can hold: dates as ISO text, null for null and for a float that is not finite."""
     value = normalize(value)
