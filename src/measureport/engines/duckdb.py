@@ -5,9 +5,11 @@
     table = engine.arrow(query)                   # the same rows as a pyarrow Table
     frame = engine.pandas(query)                  # ... or a pandas DataFrame
 
-Each table is a view named as in the model (or, for a ``from:`` that names an engine table, read
-from the connection given), with every column cast to its model type (``integer`` read as
-``BIGINT``, so that products and sums do not overflow where the reference's int64 do not).
+Each table is named as in the model (or, for a ``from:`` that names an engine table, read from
+the connection given), with every column cast to its model type (``integer`` read as ``BIGINT``,
+so that products and sums do not overflow where the reference's int64 do not). A Parquet file is
+a view over the file; a CSV file is read once into an in-memory table, since a view over it would
+parse the text again at every scan.
 """
 
 from __future__ import annotations
@@ -81,10 +83,10 @@ class DuckDBEngine:
         types = self._types(name)
         try:
             if file_format(source) == "csv":
-                relation = self.connection.read_csv(str(path), header=True, columns=types)
+                # Parsed once: a view over a CSV file would parse it again at every scan.
+                self.connection.read_csv(str(path), header=True, columns=types).create(name)
             else:
-                relation = self._cast(self.connection.read_parquet(str(path)), types)
-            relation.create_view(name, replace=True)
+                self._cast(self.connection.read_parquet(str(path)), types).create_view(name, replace=True)
         except duckdb.Error as exc:
             raise MeasureportError(
                 f"DuckDB could not read the data of table {name} from {path}: {str(exc).splitlines()[0]}",

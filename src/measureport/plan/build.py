@@ -163,7 +163,11 @@ class Builder:
         return relation
 
     def _join_back(
-        self, frame_rel: PlanNode, part: PlanNode, keys: Sequence[tuple[str, Scalar]], outs: list[tuple[str, str]]
+        self,
+        frame_rel: PlanNode,
+        part: PlanNode,
+        keys: Sequence[tuple[str, Scalar]],
+        outs: list[tuple[str, str]],
     ) -> PlanNode:
         """``frame_rel`` left-joined to ``part`` where each key column equals its frame value."""
         items: list[tuple[str, Scalar]] = []
@@ -264,7 +268,8 @@ class Builder:
     def _child_base(self, child: Frame, parent_rel: PlanNode) -> PlanNode:
         """The parent frame's rows, each repeated for its current rows in ``child``."""
         assert child.rows is not None
-        env = sorted(child.env.items(), key=lambda item: item[1])
+        read = child.subtree_columns_read() | set(child.key)
+        env = sorted(((tc, name) for tc, name in child.env.items() if name in read), key=lambda item: item[1])
         wanted = {TableCol(t, c) for (t, c), _ in env}
         rr = self.rows_relation(child.rows, parent_rel, [], wanted)
         keys = [(f"k{i}", Col(local)) for i, (local, _) in enumerate(rr.keys)]
@@ -295,9 +300,10 @@ class Builder:
     ) -> RowsRelation:
         """The relation of a row set for the frame relation ``frame_rel`` (see the module text)."""
         filters = rows.filters
-        static = [f for f in filters if not f.frame_columns()]
+        # A set of shifted days is always joined in, even when it reads no frame value.
+        static = [f for f in filters if not f.frame_columns() and not isinstance(f, ShiftFilter)]
         equal = [f for f in filters if isinstance(f, EqFilter) and f.frame_columns()]
-        dynamic = [f for f in filters if f.frame_columns() and not isinstance(f, EqFilter)]
+        dynamic = [f for f in filters if f not in static and not isinstance(f, EqFilter)]
         where_frame = columns_used(rows.where) if rows.where is not None else set()
         needed = set(wanted)
         for f in filters:

@@ -17,6 +17,8 @@ JoinKind = Literal["inner", "left", "cross"]
 
 
 class PlanNode:
+    # Subclasses are frozen dataclasses; ``cache_hashes`` below keeps each one's hash, since
+    # plans are deep trees that are used as dictionary keys many times over.
     """Base of every relational node."""
 
     label: str
@@ -243,3 +245,28 @@ def walk(root: PlanNode) -> list[PlanNode]:
 
     visit(root)
     return order
+
+
+def _cache_hash(cls: type) -> None:
+    computed = cls.__hash__
+
+    def cached(self: object) -> int:
+        found: int | None = self.__dict__.get("_hash")
+        if found is None:
+            found = computed(self)
+            object.__setattr__(self, "_hash", found)
+        return found
+
+    cls.__hash__ = cached  # type: ignore[assignment]
+
+
+def _all_subclasses(cls: type) -> list[type]:
+    found: list[type] = []
+    for sub in cls.__subclasses__():
+        found += [sub, *_all_subclasses(sub)]
+    return found
+
+
+for _cls in _all_subclasses(PlanNode):
+    if "__hash__" in vars(_cls) and vars(_cls)["__hash__"] is not None:
+        _cache_hash(_cls)

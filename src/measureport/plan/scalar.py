@@ -6,6 +6,7 @@ Aggregate calls (``AggCall``) may only appear as the values of an :class:`Aggreg
 
 from __future__ import annotations
 
+import dataclasses
 import datetime as _dt
 from collections.abc import Callable, Sequence
 from dataclasses import dataclass
@@ -22,6 +23,8 @@ SqlType = Literal["double", "bigint", "date", "text", "boolean"]
 
 
 class Scalar:
+    # Subclasses are frozen dataclasses; ``cache_hashes`` below keeps each one's hash, since
+    # plans are deep trees that are used as dictionary keys many times over.
     """Base of every scalar expression."""
 
     def children(self) -> tuple[Scalar, ...]:
@@ -313,8 +316,8 @@ def transform(expr: Scalar, fn: Callable[[Scalar], Scalar | None]) -> Scalar:
         return replaced
     if not expr.children() or isinstance(expr, Exists):
         return expr
-    fields = {name: _transform_field(value, fn) for name, value in vars(expr).items()}
-    return type(expr)(**fields)
+    changed = {f.name: _transform_field(getattr(expr, f.name), fn) for f in dataclasses.fields(expr)}  # type: ignore[arg-type]
+    return type(expr)(**changed)
 
 
 def _transform_field(value: object, fn: Callable[[Scalar], Scalar | None]) -> object:
@@ -323,3 +326,28 @@ def _transform_field(value: object, fn: Callable[[Scalar], Scalar | None]) -> ob
     if isinstance(value, tuple):
         return tuple(_transform_field(item, fn) for item in value)
     return value
+
+
+def _cache_hash(cls: type) -> None:
+    computed = cls.__hash__
+
+    def cached(self: object) -> int:
+        found: int | None = self.__dict__.get("_hash")
+        if found is None:
+            found = computed(self)
+            object.__setattr__(self, "_hash", found)
+        return found
+
+    cls.__hash__ = cached  # type: ignore[assignment]
+
+
+def _all_subclasses(cls: type) -> list[type]:
+    found: list[type] = []
+    for sub in cls.__subclasses__():
+        found += [sub, *_all_subclasses(sub)]
+    return found
+
+
+for _cls in _all_subclasses(Scalar):
+    if "__hash__" in vars(_cls) and vars(_cls)["__hash__"] is not None:
+        _cache_hash(_cls)

@@ -9,6 +9,7 @@ sub-plans are computed once. Identifiers are always quoted; no SQL text is ever 
 
 from __future__ import annotations
 
+import dataclasses
 from collections import Counter
 from dataclasses import dataclass, field
 
@@ -77,7 +78,7 @@ class StatementRenderer:
             for k in self.root.keys
         ]
         if order:
-            select = select.order_by(*order)
+            select = select.order_by(*order, copy=False)
         if self.ctes:
             select.set("with_", exp.With(expressions=list(self.ctes)))
         return select
@@ -95,16 +96,16 @@ class StatementRenderer:
         if not items:
             items = [("__one", exp.Literal.number("1"))]
         select = exp.Select(expressions=[exp.alias_(value, name, quoted=True) for name, value in items])
-        select = select.from_(piece.source)
+        select = select.from_(piece.source, copy=False)
         for join in piece.joins:
-            select = select.join(join)
+            select = select.join(join, copy=False)
         if piece.where:
             condition = piece.where[0]
             for more in piece.where[1:]:
                 condition = exp.And(this=exp.Paren(this=condition), expression=exp.Paren(this=more))
-            select = select.where(condition)
+            select = select.where(condition, copy=False)
         if distinct:
-            select = select.distinct()
+            select = select.distinct(copy=False)
         return select
 
     # --- pieces ------------------------------------------------------------------------------------
@@ -208,7 +209,7 @@ class StatementRenderer:
             values = [(name, scalars.render(value)) for name, value in node.values]
             select = self._select(piece, keys + values)
             if keys:
-                select = select.group_by(*[scalars.render(value) for _, value in node.keys])
+                select = select.group_by(*[scalars.render(value) for _, value in node.keys], copy=False)
             return select
         if isinstance(node, N.Distinct):
             piece = self.piece(node.input)
@@ -219,9 +220,9 @@ class StatementRenderer:
             selects = [self.closed(part) for part in node.parts]
             union: exp.Select = selects[0]
             for more in selects[1:]:
-                union = exp.union(union, more, distinct=False)  # type: ignore[assignment]
+                union = exp.union(union, more, distinct=False, copy=False)  # type: ignore[assignment]
             return exp.Select(expressions=[exp.Star()]).from_(
-                exp.Subquery(this=union, alias=_alias(self._name("u")))
+                exp.Subquery(this=union, alias=_alias(self._name("u"))), copy=False
             )
         if isinstance(node, N.NullRow):
             items = [(name, exp.cast(exp.Null(), exp.DataType.build(sql))) for name, sql in node.items]
@@ -271,7 +272,7 @@ def _count_uses(root: N.PlanNode) -> dict[N.PlanNode, int]:
 
 def _exists_nodes(node: N.PlanNode) -> list[N.PlanNode]:
     found: list[N.PlanNode] = []
-    for value in vars(node).values():
+    for value in (getattr(node, f.name) for f in dataclasses.fields(node)):  # type: ignore[arg-type]
         for item in _scalars_in(value):
             stack: list[Scalar] = [item]
             while stack:
