@@ -7,6 +7,7 @@ column cast to the model's type (integers excepted: see :func:`fetch_type`).
 
 from __future__ import annotations
 
+import csv
 import re
 from collections.abc import Mapping
 from pathlib import Path
@@ -44,6 +45,24 @@ class DataReadError(Exception):
 def file_format(source: str) -> FileFormat | None:
     """``csv`` or ``parquet`` for a ``from:`` that names a data file, None for an engine table."""
     return _FORMATS.get(Path(source).suffix.lower())
+
+
+def read_csv_header(path: Path) -> list[str] | None:
+    """The column names of a CSV file's header line, read without DuckDB (quick, for files whose
+    columns are all declared); None when the header cannot be read plainly."""
+    try:
+        with path.open(encoding="utf-8-sig", newline="") as handle:
+            first = handle.readline()
+    except (OSError, UnicodeDecodeError):
+        return None
+    if not first.strip():
+        return None
+    try:
+        dialect = csv.Sniffer().sniff(first, delimiters=",;\t|")
+    except csv.Error:
+        return None
+    names = next(csv.reader([first], dialect))
+    return [n.strip() for n in names] if names and all(n.strip() for n in names) else None
 
 
 def read_file_columns(

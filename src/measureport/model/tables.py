@@ -9,7 +9,13 @@ import duckdb
 from yaml.nodes import Node, ScalarNode
 
 from measureport.errors import NO_SPAN, MeasureportError
-from measureport.model.datafiles import DataReadError, FileFormat, file_format, read_file_columns
+from measureport.model.datafiles import (
+    DataReadError,
+    FileFormat,
+    file_format,
+    read_csv_header,
+    read_file_columns,
+)
 from measureport.model.names import IDENTIFIER_RULE, RESERVED_WORDS, identifier_hint, is_identifier
 from measureport.model.schema import Column, DataType, Table
 from measureport.model.typenames import TypeSpellingError, from_duckdb, parse_type
@@ -134,8 +140,13 @@ def _file_columns(
 ) -> dict[str, Column]:
     """The columns of a data file in file order: declared types where given, else read from the data."""
     source = from_node.value.strip()
+    header = read_csv_header(path) if fmt == "csv" else None
     try:
-        found = read_file_columns(connection, path, fmt)
+        if header is not None and all(name in declared for name in header):
+            # Every column is declared: its type does not come from the data, so skip the sniffing.
+            found = [(name, "") for name in header]
+        else:
+            found = read_file_columns(connection, path, fmt)
     except DataReadError as exc:
         raise src.error(f"cannot read {source}: {exc.message}", from_node) from None
     in_file = [name for name, _ in found]
