@@ -262,3 +262,22 @@ def test_a_wider_tolerance(library_model: Path, export_file: ExportWriter) -> No
     export = export_file("close.csv", RIGHT_CSV.replace("15.75", "15.7501"))
     assert diff(library_model, export)[0] == 1
     assert diff(library_model, export, "--tolerance", "1e-5")[0] == 0
+
+
+def test_no_grouping_columns(library_model: Path, export_file: ExportWriter) -> None:
+    # Every loan: 8 loans, fees 1260.25.
+    code, out, _ = diff(library_model, export_file("all.csv", 'loans,fees\n8,"1,260.25"\n'), by="")
+    assert code == 0
+    assert out.startswith("diff of loans, fees: ")
+    code, _, err = diff(library_model, export_file("all_twice.csv", "loans,fees\n8,1260.25\n8,1260.25\n"),
+                        by="")
+    assert code == 2
+    assert "rows 1 and 2 of the export are both the one row of a result without grouping columns" in err
+
+
+def test_a_report_in_a_missing_folder_is_refused_first(library_model: Path, export_file: ExportWriter,
+                                                       tmp_path: Path) -> None:
+    code, out, err = diff(library_model, export_file("right.csv", RIGHT_CSV), "--report",
+                          str(tmp_path / "nowhere" / "diff.html"))
+    assert (code, out) == (2, "")
+    assert "does not exist" in err

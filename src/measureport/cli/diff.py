@@ -5,6 +5,7 @@ from __future__ import annotations
 import dataclasses
 import math
 from collections.abc import Sequence
+from pathlib import Path
 from typing import TYPE_CHECKING
 
 import click
@@ -41,6 +42,16 @@ def _column_kinds(workspace: Workspace, query: Query) -> list[ColumnKind]:
     kinds: list[ColumnKind] = [tables[ref.table].columns[ref.column].type.kind for ref in query.by]
     kinds += [workspace.bound.measures[name].type for name in query.measures]
     return kinds
+
+
+def _checked_report_path(path: str | None) -> None:
+    if path is not None and not Path(path).resolve().parent.is_dir():
+        raise MeasureportError(f"the folder for --report {path} does not exist")
+
+
+def _subject(measures: tuple[str, ...], by: tuple[str, ...]) -> str:
+    """``loans, fees by tools.name``, or just the measures when there is no grouping."""
+    return ", ".join(measures) + (f" by {', '.join(by)}" if by else "")
 
 
 def _rows_text(numbers: Sequence[int]) -> str:
@@ -119,6 +130,7 @@ def diff(
     measures = split_list(measure_lists, "-m")
     by = split_list(by_lists, "--by")
     tolerance = _checked_tolerance(tolerance)
+    _checked_report_path(report_path)
     engine_factory(engine)
     header_maps = parse_maps(maps)
     export = read_export(expected)
@@ -145,8 +157,7 @@ def diff(
     if wanted.dropped_rows:
         notes.append(f"totals rows of the export dropped (--skip-totals): rows "
                      f"{_rows_text(wanted.dropped_rows)}")
-    click.echo(f"diff of {', '.join(measures)} by {', '.join(by) or 'nothing'}: {expected} against the "
-               f"{engine} engine")
+    click.echo(f"diff of {_subject(measures, by)}: {expected} against the {engine} engine")
     for note in notes:
         click.echo(note)
     click.echo(comparison_text(comparison, "export", "translated"), nl=False)
@@ -187,5 +198,5 @@ def _write_report(
     sections = comparison_sections(comparison, "export", "translated", about)
     if notes:
         sections.insert(0, Section("Totals rows", tuple(Paragraph(note) for note in notes)))
-    title = f"Diff of {', '.join(measures)} by {', '.join(by) or 'nothing'}"
+    title = f"Diff of {_subject(measures, by)}"
     write_report(path, title, sections)

@@ -86,9 +86,18 @@ def _duplicate(
     hint = None
     if all(value is None for value in key[:level]) and level > 0:
         hint = "a totals row whose grouping cells are empty reads like the empty member; label it Total"
+    if by:
+        message = (
+            f"rows {first} and {row.number} of the export have the same grouping values "
+            f"({key_text(by, key, level)}), so they cannot both be matched"
+        )
+    else:
+        message = (
+            f"rows {first} and {row.number} of the export are both the one row of a result without "
+            "grouping columns"
+        )
     return MeasureportError(
-        f"rows {first} and {row.number} of the export have the same grouping values "
-        f"({key_text(by, key, level)}), so they cannot both be matched",
+        message,
         row.spans[reader.mapping.positions[0]] if by else row.spans[0],
         hint=hint,
     )
