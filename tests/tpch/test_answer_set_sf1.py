@@ -1,0 +1,246 @@
+"""At scale factor 1: the example's views, run on DuckDB from the measures, reproduce the answer
+set published with the TPC-H specification (slow: generates about 1 GB of data on first run).
+
+Where the published values come from (each test names its file):
+
+- KIT: the repository bayandin/tpc-h at commit cee1580f3e4cfee2b4aac49d206ccc48d826d707, a copy of
+  the TPC-H tools (dbgen with its EULA); its folder dbgen/answers/ holds q1.out ... q22.out, the
+  specification's answer set for scale factor 1. That copy lacks q6.out, q14.out and q19.out.
+- Q6: the repository groegercesg/QueryBridge at commit d9a2b737cec891ef8a889e35bfe22ba7ee954edf,
+  file answers/q6.out: a copy of the answer set's q6.out (same layout: a header padded to 41
+  characters, then the value).
+- Values marked "from memory" were not found in any stored copy and are written as remembered.
+
+Each value is compared as the answer file prints it (numbers rounded half away from zero to the
+printed decimals), unless a test says it uses the specification's precision rules (clause 2.1.3.5).
+"""
+
+from __future__ import annotations
+
+import math
+import time
+from collections.abc import Iterator
+from decimal import Decimal
+from typing import Any
+
+import pytest
+
+from measureport.query import ResultTable
+from measureport.tpch import connect_tables, matches_printed, meets_answer_precision, prepare_tpch
+from measureport.workspace import Workspace
+from tpch.spec_queries import Q17
+
+pytestmark = pytest.mark.slow
+
+
+@pytest.fixture(scope="module")
+def sf1() -> Iterator[Workspace]:
+    started = time.perf_counter()
+    model = prepare_tpch(1)
+    print(f"\nTPC-H scale factor 1 ready in {time.perf_counter() - started:.1f} s at {model.parent}")
+    with Workspace.open(model) as workspace:
+        yield workspace
+
+
+def run_view(workspace: Workspace, view: str) -> ResultTable:
+    started = time.perf_counter()
+    result = workspace.run(workspace.view_query(view), engine="duckdb")
+    print(f"\n{view}: {len(result.rows)} rows in {time.perf_counter() - started:.2f} s")
+    return result
+
+
+def answer_rows(text: str) -> list[list[str]]:
+    """The data lines of an answer file (header left out), split at the pipes."""
+    lines = [line for line in text.strip().splitlines() if line.strip()]
+    return [line.split("|") for line in lines[1:]]
+
+
+def mismatches(rows: list[tuple[Any, ...]], published: list[list[str]]) -> list[str]:
+    """Lines naming each published row that the result rows do not print as."""
+    found = [f"{len(rows)} rows, the answer has {len(published)}"] if len(rows) != len(published) else []
+    for row, answer in zip(rows, published, strict=False):
+        if len(row) != len(answer) or not all(map(matches_printed, row, answer)):
+            found.append(f"got {row}, published {'|'.join(a.strip() for a in answer)}")
+    return found
+
+
+# KIT dbgen/answers/q1.out (columns l_returnflag, l_linestatus, sum_qty, sum_base_price,
+# sum_disc_price, sum_charge, avg_qty, avg_price, avg_disc, count_order).
+Q1_OUT = """
+l|l|sum_qty|sum_base_price|sum_disc_price|sum_charge|avg_qty|avg_price|avg_disc|count_order
+A|F|37734107.00|56586554400.73|53758257134.87|55909065222.83|25.52|38273.13|0.05|1478493
+N|F|991417.00|1487504710.38|1413082168.05|1469649223.19|25.52|38284.47|0.05|38854
+N|O|74476040.00|111701729697.74|106118230307.61|110367043872.50|25.50|38249.12|0.05|2920374
+R|F|37719753.00|56568041380.90|53741292684.60|55889619119.83|25.51|38250.85|0.05|1478870
+"""
+
+
+def test_q1_pricing_summary(sf1: Workspace) -> None:
+    result = run_view(sf1, "pricing_summary")
+    assert mismatches(result.rows, answer_rows(Q1_OUT)) == []
+
+
+# KIT dbgen/answers/q3.out (l_orderkey, revenue, o_orderdate, o_shippriority): the ten orders of
+# largest revenue, ties by order date.
+Q3_OUT = """
+l_orderkey|revenue|o_orderdate|o_shippriority
+2456423|406181.01|1995-03-05|0
+3459808|405838.70|1995-03-04|0
+492164|390324.06|1995-02-19|0
+1188320|384537.94|1995-03-09|0
+2435712|378673.06|1995-02-26|0
+4878020|378376.80|1995-03-12|0
+5521732|375153.92|1995-03-13|0
+2628192|373133.31|1995-02-22|0
+993600|371407.46|1995-03-05|0
+2300070|367371.15|1995-03-13|0
+"""
+
+
+def test_q3_shipping_priority_top_ten(sf1: Workspace) -> None:
+    result = run_view(sf1, "shipping_priority")
+    # The view's rows are (o_orderkey, o_orderdate, o_shippriority, revenue); the query keeps the
+    # ten of largest revenue, ties broken by the earlier order date.
+    top = sorted(result.rows, key=lambda r: (-r[3], r[1]))[:10]
+    assert mismatches([(r[0], r[3], r[1], r[2]) for r in top], answer_rows(Q3_OUT)) == []
+
+
+# KIT dbgen/answers/q4.out (o_orderpriority, order_count).
+Q4_OUT = """
+o_orderpriority|order_count
+1-URGENT|10594
+2-HIGH|10476
+3-MEDIUM|10410
+4-NOT SPECIFIED|10556
+5-LOW|10487
+"""
+
+
+def test_q4_order_priority_checking(sf1: Workspace) -> None:
+    result = run_view(sf1, "order_priority_checking")
+    assert mismatches(result.rows, answer_rows(Q4_OUT)) == []
+
+
+# KIT dbgen/answers/q5.out (n_name, revenue), largest revenue first.
+Q5_OUT = """
+n_name|revenue
+INDONESIA|55502041.17
+VIETNAM|55295087.00
+CHINA|53724494.26
+INDIA|52035512.00
+JAPAN|45410175.70
+"""
+
+
+def test_q5_local_supplier_volume(sf1: Workspace) -> None:
+    result = run_view(sf1, "local_supplier_volume")
+    by_revenue = sorted(result.rows, key=lambda r: -r[1])
+    assert mismatches(by_revenue, answer_rows(Q5_OUT)) == []
+
+
+# groegercesg/QueryBridge answers/q6.out (revenue).
+Q6_OUT = """
+revenue
+123141078.23
+"""
+
+
+def test_q6_forecasting_revenue_change(sf1: Workspace) -> None:
+    result = run_view(sf1, "forecasting_revenue_change")
+    assert mismatches(result.rows, answer_rows(Q6_OUT)) == []
+
+
+# KIT dbgen/answers/q11.out (ps_partkey, value), largest value first: its first ten and last
+# fourteen rows. The file has 1048 rows (from memory; the stored copy was read in parts, not counted).
+Q11_FIRST_TEN = """
+ps_partkey|value
+129760|17538456.86
+166726|16503353.92
+191287|16474801.97
+161758|16101755.54
+34452|15983844.72
+139035|15907078.34
+9403|15451755.62
+154358|15212937.88
+38823|15064802.86
+85606|15053957.15
+"""
+Q11_LAST_FOURTEEN = """
+ps_partkey|value
+96712|7897575.27
+10157|7897046.25
+171154|7896814.50
+79373|7896186.00
+113808|7893353.88
+27901|7892952.00
+128820|7892882.72
+25891|7890511.20
+122819|7888881.02
+154731|7888301.33
+101674|7879324.60
+51968|7879102.21
+72073|7877736.11
+5182|7874521.73
+"""
+
+
+def test_q11_important_stock(sf1: Workspace) -> None:
+    result = run_view(sf1, "important_stock")
+    by_value = sorted(result.rows, key=lambda r: -r[1])
+    assert len(by_value) == 1048
+    assert mismatches(by_value[:10], answer_rows(Q11_FIRST_TEN)) == []
+    assert mismatches(by_value[-14:], answer_rows(Q11_LAST_FOURTEEN)) == []
+
+
+# KIT dbgen/answers/q12.out (l_shipmode, high_line_count, low_line_count).
+Q12_OUT = """
+l_shipmode|high_line_count|low_line_count
+MAIL|6202|9324
+SHIP|6200|9262
+"""
+
+
+def test_q12_shipping_modes(sf1: Workspace) -> None:
+    result = run_view(sf1, "shipping_modes")
+    assert mismatches(result.rows, answer_rows(Q12_OUT)) == []
+
+
+# q14.out (promo_revenue): from memory, 16.38 (no stored copy of the file was found).
+Q14_OUT = """
+promo_revenue
+16.38
+"""
+
+
+def test_q14_promotion_effect(sf1: Workspace) -> None:
+    result = run_view(sf1, "promotion_effect")
+    assert mismatches(result.rows, answer_rows(Q14_OUT)) == []
+
+
+# KIT dbgen/answers/q17.out (avg_yearly).
+Q17_PUBLISHED = Decimal("348406.02")
+
+
+def test_q17_small_quantity_orders_within_the_specification_precision(sf1: Workspace) -> None:
+    result = run_view(sf1, "small_quantity_orders")
+    (value,) = result.rows[0]
+    # The measure gives 348406.05 (as does the specification's SQL run on DuckDB), 0.03 above the
+    # published 348406.02, so the printed digits differ. Clause 2.1.3.5 of the specification
+    # (comment 1: Q17 combines a SUM and a ratio, rules b and c) asks for a value within 100 of
+    # the published one; that is the check here.
+    assert meets_answer_precision("sum", value, Q17_PUBLISHED)
+    assert meets_answer_precision("ratio", value, Q17_PUBLISHED)
+    ((on_sql,),) = connect_tables(sf1.model.base_dir / "data").sql(Q17.sql).fetchall()
+    assert math.isclose(value, float(on_sql), rel_tol=1e-12)
+
+
+# q19.out (revenue): from memory, 3083843.06 (the stored copy of the kit lacks q19.out).
+Q19_OUT = """
+revenue
+3083843.06
+"""
+
+
+def test_q19_discounted_revenue(sf1: Workspace) -> None:
+    result = run_view(sf1, "discounted_revenue")
+    assert mismatches(result.rows, answer_rows(Q19_OUT)) == []
