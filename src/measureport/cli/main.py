@@ -10,6 +10,7 @@ from measureport.cli.demo import demo
 from measureport.cli.failures import ReportingGroup
 from measureport.cli.run import run
 from measureport.cli.sql import explain, sql
+from measureport.cli.views import views
 
 
 @click.group(cls=ReportingGroup, context_settings={"help_option_names": ["-h", "--help"]})
@@ -23,4 +24,5 @@ main.add_command(check)
 main.add_command(run)
 main.add_command(sql)
 main.add_command(explain)
+main.add_command(views)
 main.add_command(demo)
