@@ -7,6 +7,7 @@ import click
 from measureport import __version__
 from measureport.cli.check import check
 from measureport.cli.demo import demo
+from measureport.cli.diff import diff
 from measureport.cli.failures import ReportingGroup
 from measureport.cli.run import run
 from measureport.cli.sql import explain, sql
@@ -24,5 +25,6 @@ main.add_command(check)
 main.add_command(run)
 main.add_command(sql)
 main.add_command(explain)
+main.add_command(diff)
 main.add_command(views)
 main.add_command(demo)
