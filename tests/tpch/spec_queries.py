@@ -171,6 +171,46 @@ where
     ("revenue",),
 )
 
+Q10 = SpecQuery(
+    10,
+    "returned_item_reporting",
+    """
+select
+    c_custkey,
+    c_name,
+    sum(l_extendedprice * (1 - l_discount)) as revenue,
+    c_acctbal,
+    n_name,
+    c_address,
+    c_phone,
+    c_comment
+from
+    customer,
+    orders,
+    lineitem,
+    nation
+where
+    c_custkey = o_custkey
+    and l_orderkey = o_orderkey
+    and o_orderdate >= date '1993-10-01'
+    and o_orderdate < date '1993-10-01' + interval '3' month
+    and l_returnflag = 'R'
+    and c_nationkey = n_nationkey
+group by
+    c_custkey,
+    c_name,
+    c_acctbal,
+    c_phone,
+    n_name,
+    c_address,
+    c_comment
+order by
+    revenue desc
+""",
+    ("c_custkey", "c_name", "c_acctbal", "c_phone", "n_name", "c_address", "c_comment"),
+    ("revenue",),
+)
+
 Q11 = SpecQuery(
     11,
     "important_stock",
@@ -336,7 +376,7 @@ where
     ("revenue",),
 )
 
-SPEC_QUERIES: tuple[SpecQuery, ...] = (Q1, Q3, Q4, Q5, Q6, Q11, Q12, Q14, Q17, Q19)
+SPEC_QUERIES: tuple[SpecQuery, ...] = (Q1, Q3, Q4, Q5, Q6, Q10, Q11, Q12, Q14, Q17, Q19)
 
 # Not from the specification: Q17 with its brand and container filters turned into grouping
 # columns, so that a small scale factor (where Brand#23 in a MED BOX may sell nothing) still has

@@ -150,6 +150,41 @@ def test_q6_forecasting_revenue_change(sf1: Workspace) -> None:
     assert mismatches(result.rows, answer_rows(Q6_OUT)) == []
 
 
+# KIT dbgen/answers/q10.out (c_custkey, c_name, revenue, c_acctbal, n_name, c_address, c_phone,
+# c_comment): the twenty customers of largest revenue.
+Q10_OUT = """
+c_custkey|c_name|revenue|c_acctbal|n_name|c_address|c_phone|c_comment
+57040|Customer#000057040|734235.25|632.87|JAPAN|Eioyzjf4pp|22-895-641-3466|sits. slyly regular requests sleep alongside of the regular inst
+143347|Customer#000143347|721002.69|2557.47|EGYPT|1aReFYv,Kw4|14-742-935-3718|ggle carefully enticing requests. final deposits use bold, bold pinto beans. ironic, idle re
+60838|Customer#000060838|679127.31|2454.77|BRAZIL|64EaJ5vMAHWJlBOxJklpNc2RJiWE|12-913-494-9813| need to boost against the slyly regular account
+101998|Customer#000101998|637029.57|3790.89|UNITED KINGDOM|01c9CILnNtfOQYmZj|33-593-865-6378|ress foxes wake slyly after the bold excuses. ironic platelets are furiously carefully bold theodolites
+125341|Customer#000125341|633508.09|4983.51|GERMANY|S29ODD6bceU8QSuuEJznkNaK|17-582-695-5962|arefully even depths. blithely even excuses sleep furiously. foxes use except the dependencies. ca
+25501|Customer#000025501|620269.78|7725.04|ETHIOPIA|  W556MXuoiaYCCZamJI,Rn0B4ACUGdkQ8DZ|15-874-808-6793|he pending instructions wake carefully at the pinto beans. regular, final instructions along the slyly fina
+115831|Customer#000115831|596423.87|5098.10|FRANCE|rFeBbEEyk dl ne7zV5fDrmiq1oK09wV7pxqCgIc|16-715-386-3788|l somas sleep. furiously final deposits wake blithely regular pinto b
+84223|Customer#000084223|594998.02|528.65|UNITED KINGDOM|nAVZCs6BaWap rrM27N 2qBnzc5WBauxbA|33-442-824-8191| slyly final deposits haggle regular, pending dependencies. pending escapades wake
+54289|Customer#000054289|585603.39|5583.02|IRAN|vXCxoCsU0Bad5JQI ,oobkZ|20-834-292-4707|ely special foxes are quickly finally ironic p
+39922|Customer#000039922|584878.11|7321.11|GERMANY|Zgy4s50l2GKN4pLDPBU8m342gIw6R|17-147-757-8036|y final requests. furiously final foxes cajole blithely special platelets. f
+6226|Customer#000006226|576783.76|2230.09|UNITED KINGDOM|8gPu8,NPGkfyQQ0hcIYUGPIBWc,ybP5g,|33-657-701-3391|ending platelets along the express deposits cajole carefully final
+922|Customer#000000922|576767.53|3869.25|GERMANY|Az9RFaut7NkPnc5zSD2PwHgVwr4jRzq|17-945-916-9648|luffily fluffy deposits. packages c
+147946|Customer#000147946|576455.13|2030.13|ALGERIA|iANyZHjqhyy7Ajah0pTrYyhJ|10-886-956-3143|ithely ironic deposits haggle blithely ironic requests. quickly regu
+115640|Customer#000115640|569341.19|6436.10|ARGENTINA|Vtgfia9qI 7EpHgecU1X|11-411-543-4901|ost slyly along the patterns; pinto be
+73606|Customer#000073606|568656.86|1785.67|JAPAN|xuR0Tro5yChDfOCrjkd2ol|22-437-653-6966|he furiously regular ideas. slowly
+110246|Customer#000110246|566842.98|7763.35|VIETNAM|7KzflgX MDOq7sOkI|31-943-426-9837|egular deposits serve blithely above the fl
+142549|Customer#000142549|563537.24|5085.99|INDONESIA|ChqEoK43OysjdHbtKCp6dKqjNyvvi9|19-955-562-2398|sleep pending courts. ironic deposits against the carefully unusual platelets cajole carefully express accounts.
+146149|Customer#000146149|557254.99|1791.55|ROMANIA|s87fvzFQpU|29-744-164-6487| of the slyly silent accounts. quickly final accounts across the
+52528|Customer#000052528|556397.35|551.79|ARGENTINA|NFztyTOR10UOJ|11-208-192-3205| deposits hinder. blithely pending asymptotes breach slyly regular re
+23431|Customer#000023431|554269.54|3381.86|ROMANIA|HgiV0phqhaIa9aydNoIlb|29-915-458-2654|nusual, even instructions: furiously stealthy n
+"""  # noqa: E501 (the answer's lines, unbroken)
+
+
+def test_q10_returned_item_reporting_top_twenty(sf1: Workspace) -> None:
+    result = run_view(sf1, "returned_item_reporting")
+    # View rows: (c_custkey, c_name, c_acctbal, c_phone, n_name, c_address, c_comment, revenue).
+    top = sorted(result.rows, key=lambda r: -r[7])[:20]
+    printed_order = [(r[0], r[1], r[7], r[2], r[4], r[5], r[3], r[6]) for r in top]
+    assert mismatches(printed_order, answer_rows(Q10_OUT)) == []
+
+
 # KIT dbgen/answers/q11.out (ps_partkey, value), largest value first: its first ten and last
 # fourteen rows. The file has 1048 rows (from memory; the stored copy was read in parts, not counted).
 Q11_FIRST_TEN = """
