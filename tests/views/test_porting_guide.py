@@ -36,7 +36,7 @@ def demo_definitions() -> dict[str, object]:
 
 def guide_measures() -> list[tuple[str, object, str]]:
     """Name, syntax tree and source text of every measure in the guide's measure blocks."""
-    found = []
+    found: list[tuple[str, object, str]] = []
     for number, block in enumerate(MEASURE_BLOCK.findall(guide_text())):
         for definition in parse_measures(block, f"porting-guide block {number + 1}").measures:
             found.append((definition.name, definition.expr, block))
