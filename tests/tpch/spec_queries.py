@@ -306,6 +306,45 @@ where
     ("promo_revenue",),
 )
 
+Q16 = SpecQuery(
+    16,
+    "parts_supplier_relationship",
+    """
+select
+    p_brand,
+    p_type,
+    p_size,
+    count(distinct ps_suppkey) as supplier_cnt
+from
+    partsupp,
+    part
+where
+    p_partkey = ps_partkey
+    and p_brand <> 'Brand#45'
+    and p_type not like 'MEDIUM POLISHED%'
+    and p_size in (49, 14, 23, 45, 19, 3, 36, 9)
+    and ps_suppkey not in (
+        select
+            s_suppkey
+        from
+            supplier
+        where
+            s_comment like '%Customer%Complaints%'
+    )
+group by
+    p_brand,
+    p_type,
+    p_size
+order by
+    supplier_cnt desc,
+    p_brand,
+    p_type,
+    p_size
+""",
+    ("p_brand", "p_type", "p_size"),
+    ("supplier_cnt",),
+)
+
 Q17 = SpecQuery(
     17,
     "small_quantity_orders",
@@ -376,7 +415,7 @@ where
     ("revenue",),
 )
 
-SPEC_QUERIES: tuple[SpecQuery, ...] = (Q1, Q3, Q4, Q5, Q6, Q10, Q11, Q12, Q14, Q17, Q19)
+SPEC_QUERIES: tuple[SpecQuery, ...] = (Q1, Q3, Q4, Q5, Q6, Q10, Q11, Q12, Q14, Q16, Q17, Q19)
 
 # Not from the specification: Q17 with its brand and container filters turned into grouping
 # columns, so that a small scale factor (where Brand#23 in a MED BOX may sell nothing) still has

@@ -13,7 +13,7 @@ from measureport.workspace import Workspace
 
 def test_every_view_binds_to_a_query(small_workspace: Workspace) -> None:
     views = small_workspace.model.views
-    assert len(views) == 11
+    assert len(views) == 12
     for name in views:
         assert small_workspace.view_query(name).measures == views[name].measures
 
