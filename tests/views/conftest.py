@@ -1,11 +1,12 @@
 """Fixtures for the views tests: the orchard model of orchard.py (invented data), the command
-line, and a throwaway PostgreSQL server for the slow tests."""
+line, and a PostgreSQL database per slow test."""
 
 from __future__ import annotations
 
 import uuid
 from collections.abc import Callable, Iterator
 from pathlib import Path
+from urllib.parse import urlsplit, urlunsplit
 
 import pytest
 from click.testing import CliRunner
@@ -28,24 +29,31 @@ def orchard(tmp_path: Path) -> Path:
     return write_orchard(tmp_path / "orchard", PORTABLE_VIEWS)
 
 
-@pytest.fixture(scope="session")
-def postgres_server() -> Iterator[str]:
-    """The URL of a throwaway PostgreSQL server for the whole session (skipped where none can run)."""
-    from measureport.engines.pgserver import ThrowawayPostgres, unavailable_reason
+try:
+    # The real-engine tests' PostgreSQL: $MEASUREPORT_POSTGRES_URL, else a throwaway server.
+    from realengines.conftest import postgres_url
+except ImportError:  # pragma: no cover - only while that suite is not there
 
-    reason = unavailable_reason()
-    if reason is not None:
-        pytest.skip(reason)
-    with ThrowawayPostgres() as server:
-        yield server.url
+    @pytest.fixture(scope="session")
+    def postgres_url() -> Iterator[str]:
+        """A throwaway PostgreSQL server for the session (skipped where none can run)."""
+        from measureport.engines.pgserver import ThrowawayPostgres, unavailable_reason
+
+        reason = unavailable_reason()
+        if reason is not None:
+            pytest.skip(reason)
+        with ThrowawayPostgres() as server:
+            yield server.url
 
 
 @pytest.fixture
-def postgres_database(postgres_server: str) -> str:
-    """The URL of a new, empty database on the throwaway server, one per test."""
+def postgres_database(postgres_url: str) -> Iterator[str]:
+    """The URL of a new, empty database on the PostgreSQL server, one per test, dropped after it."""
     import psycopg
 
     name = f"views_{uuid.uuid4().hex[:12]}"
-    with psycopg.connect(postgres_server, autocommit=True) as connection:
+    with psycopg.connect(postgres_url, autocommit=True) as connection:
         connection.execute(f'CREATE DATABASE "{name}"')
-    return postgres_server.rpartition("/")[0] + "/" + name
+    yield urlunsplit(urlsplit(postgres_url)._replace(path=f"/{name}"))
+    with psycopg.connect(postgres_url, autocommit=True) as connection:
+        connection.execute(f'DROP DATABASE IF EXISTS "{name}" WITH (FORCE)')
