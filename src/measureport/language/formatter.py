@@ -50,11 +50,16 @@ def format_expr(expr: ast.Expr) -> str:
 
 
 def format_measure(measure: ast.MeasureDef) -> str:
-    """``measure NAME = EXPRESSION``, preceded by its description as `#` comment lines."""
+    """``measure NAME = EXPRESSION``, preceded by its description as `#` comment lines.
+
+    An expression over several lines (a `let`) continues on lines indented by two spaces.
+    """
     lines = []
     if measure.description:
         lines = [f"# {line}" if line else "#" for line in measure.description.split("\n")]
-    lines.append(f"measure {measure.name} = {format_expr(measure.expr)}")
+    first, *rest = format_expr(measure.expr).split("\n")
+    lines.append(f"measure {measure.name} = {first}")
+    lines.extend(f"  {line}" for line in rest)  # continuation lines of a `let`, indented
     return "\n".join(lines)
 
 

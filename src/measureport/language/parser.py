@@ -37,7 +37,7 @@ def parse_measures(text: str, file: str) -> ast.MeasureFile:
     text = text.removeprefix(_BYTE_ORDER_MARK)
     remember_source(file, text)
     tree = _parse_tree(text, file, START_FILE)
-    definitions: tuple[ast.MeasureDef, ...] = _build(tree, file)
+    definitions: tuple[ast.MeasureDef, ...] = _build(tree, file, text)
     lines = [line.rstrip("\r") for line in text.split("\n")]
     described = tuple(
         dataclasses.replace(d, description=comment_block_above(lines, d.span.line, d.span.column))
@@ -59,49 +59,60 @@ def parse_expression(text: str, file: str, line: int = 1, column: int = 1) -> as
     placed = "\n" * (line - 1) + " " * (column - 1) + text
     if (line, column) == (1, 1) or source_line(file, line) is None:
         remember_source(file, placed)
-    tree = _parse_tree(placed, file, START_EXPRESSION)
-    expr: ast.Expr = _build(tree, file)
+    tree = _parse_tree(placed, file, START_EXPRESSION, origin=(line, column))
+    expr: ast.Expr = _build(tree, file, placed)
     return expr
 
 
-def _parse_tree(text: str, file: str, start: str) -> Tree[Token]:
-    """lark's parse tree of ``text``, or a :class:`MeasureportError` at the first mistake."""
-    parser = measure_parser()
-    interactive = parser.parse_interactive(text, start=start)
+def _parse_tree(text: str, file: str, start: str, origin: tuple[int, int] = (1, 1)) -> Tree[Token]:
+    """lark's parse tree of ``text``, or a :class:`MeasureportError` at the first mistake.
+
+    ``origin`` is where the text proper starts, for an error about text that holds no token.
+    """
+    try:
+        return measure_parser().parse(text, start=start)
+    except UnexpectedInput:
+        pass
+    # Read the text again, token by token, to say in words what went wrong where.
+    raise _diagnose(text, file, start, origin)
+
+
+def _diagnose(text: str, file: str, start: str, origin: tuple[int, int]) -> MeasureportError:
+    """The error for a text that does not parse, found by feeding its tokens one at a time."""
+    interactive = measure_parser().parse_interactive(text, start=start)
     read: list[Token] = []
     open_parens: list[Token] = []
     try:
         for token in interactive.iter_parse():
-            _check_call_shape(file, token, read[-1] if read else None)
+            if _written_as_call(token, read[-1] if read else None):
+                return MeasureportError(unknown_function_message(read[-1].value), token_span(file, read[-1]))
             read.append(token)
             if token.type == "LPAR":
                 open_parens.append(token)
             elif token.type == "RPAR" and open_parens:
                 open_parens.pop()
-        tree: Tree[Token] = interactive.feed_eof(read[-1] if read else None)  # type: ignore[no-untyped-call]
+        interactive.feed_eof(read[-1] if read else None)  # type: ignore[no-untyped-call]
     except UnexpectedCharacters as error:
         position = error.pos_in_stream if error.pos_in_stream is not None else len(text) - 1
-        raise unexpected_character(file, text, position, error.line, error.column) from None
+        return unexpected_character(file, text, position, error.line, error.column)
     except UnexpectedToken as error:
-        raise _token_error(file, start, error.token, read, open_parens) from None
-    except UnexpectedInput as error:  # any other way lark can stop: report the place
-        raise MeasureportError(
-            "this text cannot be read as a measure", Span(file, error.line, error.column)
-        ) from None
-    return tree
+        if not read and error.token.type == "$END":
+            return MeasureportError("expected an expression", Span(file, *origin, *origin))
+        return _token_error(file, start, error.token, read, open_parens)
+    except UnexpectedInput as error:
+        return MeasureportError("this text cannot be read as a measure", Span(file, error.line, error.column))
+    return MeasureportError("this text cannot be read as a measure", Span(file, *origin, *origin))
 
 
-def _check_call_shape(file: str, token: Token, previous: Token | None) -> None:
-    # A name written straight against `(` is meant as a function call, even where the grammar
-    # could read the parentheses as the body of a `let`.
-    if (
+def _written_as_call(token: Token, previous: Token | None) -> bool:
+    """A name written straight against `(`: meant as a function call (see TreeBuilder.let_expr)."""
+    return (
         token.type == "LPAR"
         and previous is not None
         and previous.type == "NAME"
         and previous.end_pos == token.start_pos
         and previous.value not in FUNCTION_NAMES
-    ):
-        raise MeasureportError(unknown_function_message(previous.value), token_span(file, previous))
+    )
 
 
 def _token_error(
@@ -152,9 +163,9 @@ def _accepted_after(start: str, tokens: list[Token]) -> frozenset[str]:
     return frozenset(interactive.accepts())  # type: ignore[no-untyped-call]
 
 
-def _build(tree: Tree[Token], file: str) -> Any:
+def _build(tree: Tree[Token], file: str, text: str) -> Any:
     try:
-        return TreeBuilder(file).transform(tree)
+        return TreeBuilder(file, text).transform(tree)
     except VisitError as error:
         if isinstance(error.orig_exc, MeasureportError):
             raise error.orig_exc from None

@@ -18,9 +18,12 @@ from lark.tree import Meta
 from measureport.errors import MeasureportError, Span
 from measureport.language import ast
 from measureport.language.spans import joined, meta_span, token_span
+from measureport.language.syntax_errors import unknown_function_message
+from measureport.language.words import RESERVED_WORDS
 
 _DATE_TEXT = re.compile(r"(\d{4})-(\d{2})-(\d{2})")
 _START_TEXT = re.compile(r"(\d{2})-(\d{2})")
+_TRAILING_WORD = re.compile(r"(?<![.\w])[A-Za-z_]\w*$")
 _MONTH_NAMES = (
     "January", "February", "March", "April", "May", "June",
     "July", "August", "September", "October", "November", "December",
@@ -54,9 +57,10 @@ def text_value(token: Token) -> str:
 class TreeBuilder(Transformer[Token, Any]):
     """Builds syntax tree nodes whose spans point into ``file``."""
 
-    def __init__(self, file: str) -> None:
+    def __init__(self, file: str, text: str) -> None:
         super().__init__()
         self.file = file
+        self.lines = text.split("\n")
 
     # --- helpers -----------------------------------------------------------------------------
 
@@ -89,7 +93,19 @@ class TreeBuilder(Transformer[Token, Any]):
 
     def let_expr(self, meta: Meta, children: Children) -> ast.Let:
         name, value, body = children
+        self._check_not_a_call(value.span)
         return ast.Let(name.value, value, body, span=self._span(meta), name_span=self._token_span(name))
+
+    def _check_not_a_call(self, value: Span) -> None:
+        # A name written straight against `(` is meant as a function call, even though the
+        # grammar can read the parentheses as the body of a `let`.
+        line = self.lines[value.end_line - 1]
+        if line[value.end_column : value.end_column + 1] != "(":
+            return
+        word = _TRAILING_WORD.search(line[: value.end_column])
+        if word is not None and word.group(0) not in RESERVED_WORDS:
+            span = Span(self.file, value.end_line, word.start() + 1, value.end_line, value.end_column)
+            raise self._error(unknown_function_message(word.group(0)), span)
 
     def if_expr(self, meta: Meta, children: Children) -> ast.If:
         condition, then, otherwise = children

@@ -33,21 +33,23 @@ RESERVED_WORDS: frozenset[str] = frozenset(KEYWORDS) | frozenset(FUNCTION_NAMES)
 # stay free as names everywhere else.
 CONTEXT_WORDS: frozenset[str] = frozenset({"year", "quarter", "month", "day", "start"})
 
+_MODIFIER_PLACE = "`{}` is a modifier: it stands after `given`, modifiers separated by commas"
+
 # Words with which a clause of a larger form begins, and the form each one belongs to.
 CLAUSE_OWNERS: dict[str, str] = {
-    "then": "an `if` needs a condition first",
+    "then": "`then` follows the condition of an `if`",
     "else": "an `else` follows `if ... then ...`",
-    "over": "`over` belongs inside rank(EXPR over t.c)",
-    "for": "`for each` belongs inside an aggregate, as in sum(EXPR for each t)",
-    "each": "`each` follows `for` inside an aggregate, as in sum(EXPR for each t)",
-    "where": "`where` follows `for each` inside an aggregate, as in sum(EXPR for each t where COND)",
+    "over": "`over` belongs inside rank, as in rank(trips over stations.name)",
+    "for": "`for each` belongs inside an aggregate, as in sum(rides.fare for each rides)",
+    "each": "`each` follows `for` inside an aggregate, as in sum(rides.fare for each rides)",
+    "where": "`where` follows `for each` inside an aggregate, as in sum(rides.fare for each rides where ...)",
     "but": "`but` follows `clear t` after `given`",
-    "ascending": "`ascending` belongs inside rank(EXPR over t.c ascending)",
-    "descending": "`descending` belongs inside rank(EXPR over t.c descending)",
-    "narrow": "`narrow` is a modifier: it can only follow `given`",
-    "clear": "`clear` is a modifier: it can only follow `given`",
-    "row": "`row` is a modifier: it can only follow `given`",
-    "to_date": "`to_date` is a modifier: it can only follow `given`",
-    "shift": "`shift` is a modifier: it can only follow `given`",
-    "trailing": "`trailing` is a modifier: it can only follow `given`",
+    "ascending": "`ascending` ends a rank, as in rank(trips over stations.name ascending)",
+    "descending": "`descending` ends a rank, as in rank(trips over stations.name descending)",
+    "narrow": _MODIFIER_PLACE.format("narrow"),
+    "clear": _MODIFIER_PLACE.format("clear"),
+    "row": _MODIFIER_PLACE.format("row"),
+    "to_date": _MODIFIER_PLACE.format("to_date"),
+    "shift": _MODIFIER_PLACE.format("shift"),
+    "trailing": _MODIFIER_PLACE.format("trailing"),
 }
