@@ -11,6 +11,7 @@ import pytest
 
 from measureport.errors import MeasureportError
 from measureport.tpch import TABLES, data_is_complete, example_dir, generate, generate_data, prepare_tpch
+from measureport.tpch.__main__ import main
 
 
 def stand_in_generator(folder: Path, fail: bool = False) -> tuple[Path, Path]:
@@ -79,3 +80,20 @@ def test_prepare_generates_once_and_keeps_the_model_current(
     assert prepare_tpch(0.5, cache) == model
     assert model.read_bytes() == (example_dir() / "model.yaml").read_bytes()  # copied again
     assert len(log.read_text().splitlines()) == 1  # but generated only once
+
+
+def test_command_prints_the_model_path(
+    monkeypatch: pytest.MonkeyPatch, tmp_path: Path, capsys: pytest.CaptureFixture[str]
+) -> None:
+    script, _ = stand_in_generator(tmp_path)
+    monkeypatch.setattr(generate, "find_generator", lambda: script)
+    assert main(["--scale", "0.5", "--cache", str(tmp_path / "cache")]) == 0
+    out = capsys.readouterr()
+    assert out.out.strip() == str(tmp_path / "cache" / "tpch" / "sf0.5" / "model.yaml")
+    assert "generated in" in out.err
+
+
+def test_command_refuses_a_scale_of_zero(tmp_path: Path, capsys: pytest.CaptureFixture[str]) -> None:
+    assert main(["--scale", "0", "--cache", str(tmp_path)]) == 2
+    err = capsys.readouterr().err
+    assert "scale factor is a number above 0" in err and "Traceback" not in err

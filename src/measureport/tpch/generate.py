@@ -67,6 +67,8 @@ def generate_data(scale: float, data_dir: Path) -> Path:
         if missing:
             raise MeasureportError(f"tpchgen-cli did not write the tables {', '.join(missing)}")
         (staging / COMPLETE_MARK).write_text(label + "\n", encoding="utf-8")
+        if data_is_complete(data_dir, scale):
+            return data_dir  # another process finished first; its files are as good as ours
         if data_dir.exists():
             shutil.rmtree(data_dir)
         staging.rename(data_dir)
