@@ -1,0 +1,1 @@
+"""Contract tests: a ferry model written from LANGUAGE.md alone, driven through the command line."""

@@ -1,0 +1,29 @@
+"""Fixtures of the contract suite: one bench for the session, its outcomes per test module."""
+
+from __future__ import annotations
+
+from collections.abc import Iterator
+from types import ModuleType
+
+import pytest
+
+from contract.bench import Bench, Outcome
+
+
+@pytest.fixture(scope="session")
+def bench(request: pytest.FixtureRequest, tmp_path_factory: pytest.TempPathFactory) -> Iterator[Bench]:
+    """The shared bench; it starts the commands of every collected contract module at once."""
+    modules: dict[str, ModuleType] = {}
+    for item in request.session.items:
+        module = getattr(item, "module", None)
+        if module is not None and hasattr(module, "COMMANDS"):
+            modules.setdefault(module.__name__, module)
+    shared = Bench(tmp_path_factory.mktemp("harbour"), list(modules.values()))
+    yield shared
+    shared.close()
+
+
+@pytest.fixture(scope="module")
+def outcomes(request: pytest.FixtureRequest, bench: Bench) -> dict[str, Outcome]:
+    """The outcomes of the calling module's ``COMMANDS`` and ``SHARED`` grids, by name."""
+    return bench.outcomes(request.module)
