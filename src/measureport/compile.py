@@ -10,7 +10,7 @@ compiled.scans               # how many times the statement reads each model tab
 
 from __future__ import annotations
 
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 
 from sqlglot import exp
 
@@ -33,9 +33,9 @@ class CompiledQuery:
     sqlglot_dialect: str
     bound: BoundModel
     query_plan: QueryPlan
-    public: RenderedStatement
-    executable: RenderedStatement
+    rendered: RenderedStatement
     _sql: str | None = field(default=None, repr=False)
+    _expression: exp.Select | None = field(default=None, repr=False)
 
     @property
     def plan(self) -> object:
@@ -43,22 +43,26 @@ class CompiledQuery:
 
     @property
     def expression(self) -> exp.Select:
-        return self.public.expression
+        """The statement as a sqlglot tree (a copy of its own)."""
+        if self._expression is None:
+            self._expression = self.rendered.public_expression()
+        return self._expression
 
     @property
     def run_expression(self) -> exp.Select:
-        return self.executable.expression
+        """The statement that engines execute, with the ``__level`` column last."""
+        return self.rendered.expression
 
     @property
     def sql(self) -> str:
         """The statement, formatted, in the query's dialect."""
         if self._sql is None:
-            self._sql = self.public.sql(self.sqlglot_dialect)
+            self._sql = self.rendered.sql(self.sqlglot_dialect)
         return self._sql
 
     def run_sql(self, pretty: bool = False) -> str:
         """The statement that engines execute (``sql`` plus the ``__level`` column)."""
-        return self.executable.sql(self.sqlglot_dialect, pretty=pretty)
+        return self.rendered.sql(self.sqlglot_dialect, pretty=pretty, everything=True)
 
     @property
     def level_column(self) -> str:
@@ -67,28 +71,33 @@ class CompiledQuery:
     @property
     def scans(self) -> dict[str, int]:
         """How many times the statement reads each model table."""
-        return dict(self.public.scans)
+        return dict(self.rendered.scans)
 
     def explain(self) -> str:
-        """Per measure: its text, how each aggregate, iteration and rank in it was lowered (and
-        which other measures share that step), then the plan tree of the whole query."""
+        """Per measure: its text, how each aggregate, iteration and rank it needs was lowered
+        (and which other measures share that step), and its plan tree; then the tables the
+        statement reads and the plan of the whole query, where the measures are fused."""
         lines: list[str] = []
         for name in self.query.measures:
             measure = self.bound.measures[name]
             lines.append(f"measure {name} = {' '.join(measure.source.split()) or '...'}")
             steps = self.query_plan.strategies_for(name)
             if not steps:
-                lines.append("  computed from values of the grid row only (no aggregate)")
+                lines.append("  computed from the values of the grid row alone (no aggregate)")
             for step in steps:
                 description = getattr(step.request, "description", "") or "a step"
                 lines.append(f"  - {description}: {step.words}")
                 others = [m for m in step.shared_with() if m != name]
                 if others:
                     lines.append(f"    fused with {', '.join(others)} (one aggregate, one scan)")
-        lines.append("")
+            if len(self.query.measures) > 1:
+                alone = plan_query(self.bound, replace(self.query, measures=(name,)))
+                lines.append("  plan of this measure alone:")
+                lines += ["    " + line for line in format_plan(alone.root).splitlines()]
+            lines.append("")
         scans = ", ".join(f"{t} {n}x" for t, n in sorted(self.scans.items())) or "none"
-        lines.append(f"tables read: {scans}")
-        lines.append("plan:")
+        lines.append(f"tables read by the statement: {scans}")
+        lines.append("plan of the query:")
         lines += ["  " + line for line in format_plan(self.query_plan.root).splitlines()]
         return "\n".join(lines)
 
@@ -98,6 +107,5 @@ def compile_query(bound: BoundModel, query: Query, dialect: str = "duckdb") -> C
     lowered exactly raises :class:`measureport.errors.MeasureportError` naming the measure."""
     profile = dialect_profile(dialect)
     planned = plan_query(bound, query)
-    public = render_statement(planned.root)
-    executable = render_statement(planned.executable)
-    return CompiledQuery(query, profile.name, profile.sqlglot, bound, planned, public, executable)
+    rendered = render_statement(planned.executable, hidden_last=True)
+    return CompiledQuery(query, profile.name, profile.sqlglot, bound, planned, rendered)

@@ -83,16 +83,63 @@ measure stop_rank_up = rank(riders over stops.name ascending)
 measure zone_rank = rank(boardings_n over stops.zone)
 """
 
-PLAIN = ["boardings_n", "riders", "mean_fare", "fares_seen", "stops_seen", "first_day", "last_day",
-         "stop_count", "platforms", "faults", "faults_per_boarding"]
-GIVEN = ["line_share", "zone_a", "zone_a_narrow", "zone_a_or_b", "all_stops", "keep_zone", "big_fares",
-         "above_mean", "cleared_then_set", "not_harbour", "null_zone"]
-EACH = ["per_stop", "per_stop_row", "busiest", "zones_used", "bare_inside", "row_sum", "bound_rows",
-        "rich_rows", "filtered_each", "pairs", "cleared_each", "replaced_each", "nested", "within_given",
-        "mix_outer"]
+PLAIN = [
+    "boardings_n",
+    "riders",
+    "mean_fare",
+    "fares_seen",
+    "stops_seen",
+    "first_day",
+    "last_day",
+    "stop_count",
+    "platforms",
+    "faults",
+    "faults_per_boarding",
+]
+GIVEN = [
+    "line_share",
+    "zone_a",
+    "zone_a_narrow",
+    "zone_a_or_b",
+    "all_stops",
+    "keep_zone",
+    "big_fares",
+    "above_mean",
+    "cleared_then_set",
+    "not_harbour",
+    "null_zone",
+]
+EACH = [
+    "per_stop",
+    "per_stop_row",
+    "busiest",
+    "zones_used",
+    "bare_inside",
+    "row_sum",
+    "bound_rows",
+    "rich_rows",
+    "filtered_each",
+    "pairs",
+    "cleared_each",
+    "replaced_each",
+    "nested",
+    "within_given",
+    "mix_outer",
+]
 SCALARS = ["big_day", "with_let", "scaled", "extremes", "maybe", "the_line"]
-TIME = ["ytd", "fiscal_ytd", "qtd", "mtd", "last_year", "prior_month", "next_week", "trailing_28",
-        "trailing_2m", "ly_ytd", "recent"]
+TIME = [
+    "ytd",
+    "fiscal_ytd",
+    "qtd",
+    "mtd",
+    "last_year",
+    "prior_month",
+    "next_week",
+    "trailing_28",
+    "trailing_2m",
+    "ly_ytd",
+    "recent",
+]
 RANKS = ["stop_rank", "stop_rank_up", "zone_rank"]
 
 # The default run: no column, one, two within one table, three across three tables.

@@ -130,7 +130,7 @@ class DuckDBEngine:
 
     def arrow(self, query: Query) -> pa.Table:
         """The rows of ``query`` as printed by ``run``, as a pyarrow Table."""
-        return self._relation(self.compile(query).sql).fetch_arrow_table()
+        return self._relation(self.compile(query).sql).to_arrow_table()
 
     def pandas(self, query: Query) -> pd.DataFrame:
         """The rows of ``query`` as printed by ``run``, as a pandas DataFrame."""

@@ -15,7 +15,7 @@ joined to the rows on the filter's predicate and grouped by.
 from __future__ import annotations
 
 from collections import defaultdict
-from collections.abc import Sequence
+from collections.abc import Callable, Sequence
 from dataclasses import dataclass, field, replace
 
 from measureport.model.datafiles import file_format
@@ -195,7 +195,7 @@ class Builder:
                 value = _guard_empty(value)
             values.append((f"v{i}", value))
         node = Aggregate(rr.node, tuple(keys), tuple(values), label=_agg_label(rows))
-        words = self._describe_rows(rows, rr)
+        words = self._describe_rows(frame, rows, rr)
         for request in requests:
             self.strategies.append(Strategy(request, words, list(requests), self.lowering.askers))
         outs = [(r.out, f"v{i}") for i, r in enumerate(requests)]
@@ -240,7 +240,9 @@ class Builder:
         self.strategies.append(
             Strategy(
                 request,
-                f"nested aggregation: {child.label} row by row, then {request.function} per row",
+                f"nested aggregation: {child.label} row by row"
+                + (" (identical rows counted together)" if child.weight else "")
+                + f", then {request.function} of the values per frame row",
                 [request],
                 self.lowering.askers,
             )
@@ -378,8 +380,15 @@ class Builder:
                     param(value)
                 shifts.append((days, day_col, columns[TableCol(f.table, f.column)]))
             else:
-                mapping = {c: param(Col(c)) for c in f.frame_columns()}
-                conditions.append(_local_filter(f, columns, mapping))
+                assert isinstance(f, CondFilter)
+                # The parts that read only frame values are computed once per parameter row.
+                hoisted = _hoist_frame_parts(f.predicate, param)
+                for part in list(params):
+                    if not isinstance(part, Col):
+                        for c in sorted(columns_used(part)):
+                            param(Col(c))
+                local = {c: c for c in columns_used(hoisted)}
+                conditions.append(_local_filter(replace(f, predicate=hoisted), columns, local))
         carried_map = {c: param(Col(c)) for c in carried}
         for c in sorted(where_frame):
             carried_map[c] = param(Col(c))
@@ -402,7 +411,10 @@ class Builder:
             rows_node = FilterNode(rows_node, predicate)
         condition = conjunction(conditions) or Const(True, "boolean")
         node = Join(p_node, rows_node, "inner", condition)
-        keys = [(name, value) for value, name in params.items()]
+        # Values computed from frame columns are not keys: the frame columns they come from are.
+        keys: list[tuple[str, Scalar]] = [
+            (name, value) for value, name in params.items() if isinstance(value, Col)
+        ]
         return node, keys, carried_map
 
     def _shifted_days(self, f: ShiftFilter, frame_rel: PlanNode) -> tuple[RowsRelation, str]:
@@ -494,15 +506,28 @@ class Builder:
             return (table,)
         return tuple(spec.source.split("."))
 
-    def _describe_rows(self, rows: RowSet, rr: RowsRelation) -> str:
-        parts = [f"aggregate of {rows.table}"]
-        if rr.keys and not rr.uses_params:
-            parts.append("grouped by the keys it is filtered on, joined back to the frame")
-        elif rr.uses_params:
-            parts.append("per parameter values of the frame (correlated predicate), joined back")
+    def _describe_rows(self, frame: Frame, rows: RowSet, rr: RowsRelation) -> str:
+        """How a row set became SQL, in words a user can follow."""
+        keyed = [
+            f"{f.table}.{f.column}" for f in rows.filters if isinstance(f, EqFilter) and f.frame_columns()
+        ]
+        what = f"aggregate of {rows.table}"
+        if rows.distinct:
+            what += " over the distinct " + ", ".join(str(c) for c in rows.distinct)
+        if rr.uses_params:
+            how = (
+                "correlated predicate: the distinct values it depends on (per frame row) are joined"
+                " to the rows they select, aggregated per value and joined back"
+            )
+        elif keyed:
+            how = f"grouped by {', '.join(keyed)} and joined back on it"
+            if frame.kind == "grid" and len(keyed) < len(frame.key):
+                how += f" (a coarser grain than the grid's {len(frame.key)} columns: a join-back)"
+        elif frame.kind == "grid" and frame.key:
+            how = "not grouped: no grid column filters these rows, so one value serves every grid row"
         else:
-            parts.append("one value for every row (no filter depends on the row)")
-        return "; ".join(parts)
+            how = "one value for every row of the frame (no filter depends on the row)"
+        return f"{what}; {how}"
 
 
 def _filter_columns(f: Filter) -> set[TableCol]:
@@ -530,6 +555,20 @@ def _local_filter(f: Filter, columns: dict[TableCol, str], params: dict[str, str
     if isinstance(f, CondFilter):
         return transform(f.predicate, swap)
     raise TypeError(f)
+
+
+def _hoist_frame_parts(predicate: Scalar, param: Callable[[Scalar], str]) -> Scalar:
+    """``predicate`` with each largest part that reads frame values but no row column replaced
+    by a parameter column."""
+
+    def swap(node: Scalar) -> Scalar | None:
+        if table_columns(node):
+            return None
+        if columns_used(node):
+            return Col(param(node))
+        return node
+
+    return transform(predicate, swap)
 
 
 def _plain_aggregate(function: str, argument: Scalar) -> Scalar:

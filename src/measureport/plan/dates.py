@@ -17,6 +17,7 @@ from measureport.plan.scalar import (
     DatePartOf,
     Func,
     IntDiv,
+    LastDayOf,
     MakeDate,
     Mod,
     Scalar,
@@ -38,20 +39,14 @@ def month_index(day: Scalar) -> Scalar:
     )
 
 
-def last_day_of_month(index: Scalar) -> Scalar:
-    """The number of days of the month with this index (the day before the next month's first)."""
-    following = Arith("+", index, _n(1))
-    first_next = MakeDate(IntDiv(following, _n(12)), Arith("+", Mod(following, _n(12)), _n(1)), _n(1))
-    return DatePartOf("day", AddDays(first_next, _n(-1)))
-
-
 def on_day(index: Scalar, day: Scalar) -> Scalar:
     """Day ``day`` of the month with this index, clamped to that month's last day."""
-    return MakeDate(
-        IntDiv(index, _n(12)),
-        Arith("+", Mod(index, _n(12)), _n(1)),
-        Func("least", (day, last_day_of_month(index))),
-    )
+    year = IntDiv(index, _n(12))
+    month = Arith("+", Mod(index, _n(12)), _n(1))
+    if isinstance(day, Const) and isinstance(day.value, int) and day.value <= 28:
+        return MakeDate(year, month, day)
+    length = DatePartOf("day", LastDayOf(MakeDate(year, month, _n(1))))
+    return MakeDate(year, month, Func("least", (day, length)))
 
 
 def add_months(day: Scalar, months: int) -> Scalar:
@@ -69,17 +64,35 @@ def shift_date(day: Scalar, offset: int, unit: ast.Unit) -> Scalar:
 def period_start(last: Scalar, period: ast.Period, start: str | None) -> Scalar:
     """The first day of the year, quarter or month that holds ``last``; years and quarters begin
     on ``start`` ("MM-DD") when it is given."""
+    year = DatePartOf("year", last)
     if period == "month":
-        return MakeDate(DatePartOf("year", last), DatePartOf("month", last), _n(1))
+        return MakeDate(year, DatePartOf("month", last), _n(1))
     start_month, start_day = (1, 1) if start is None else (int(p) for p in start.split("-"))
-    step = 12 if period == "year" else 3
+    if period == "year":
+        this_year = _day_of_year(year, start_month, start_day)
+        if (start_month, start_day) == (1, 1):
+            return this_year
+        year_before = _day_of_year(Arith("-", year, _n(1)), start_month, start_day)
+        return Case(((Compare(">", this_year, last), year_before),), this_year)
+    if (start_month, start_day) == (1, 1):
+        first_month = Arith(
+            "+", Arith("*", IntDiv(Arith("-", DatePartOf("month", last), _n(1)), _n(3)), _n(3)), _n(1)
+        )
+        return MakeDate(year, first_month, _n(1))
     index = month_index(last)
-    candidate = Arith("-", index, Mod(Arith("-", index, _n(start_month - 1)), _n(step)))
+    candidate = Arith("-", index, Mod(Arith("-", index, _n(start_month - 1)), _n(3)))
     first = on_day(candidate, _n(start_day))
     if start_day == 1:
         return first
-    earlier = on_day(Arith("-", candidate, _n(step)), _n(start_day))
+    earlier = on_day(Arith("-", candidate, _n(3)), _n(start_day))
     return Case(((Compare(">", first, last), earlier),), first)
+
+
+def _day_of_year(year: Scalar, month: int, day: int) -> Scalar:
+    """Day ``day`` of month ``month`` of ``year`` (clamped to the month's end)."""
+    if day <= 28:
+        return MakeDate(year, _n(month), _n(day))
+    return on_day(Arith("+", Arith("*", year, _n(12)), _n(month - 1)), _n(day))
 
 
 def trailing_start(last: Scalar, count: int, unit: ast.Unit) -> Scalar:

@@ -25,7 +25,7 @@ from measureport.model.graph import closest_common_source, reachable
 from measureport.model.schema import Model
 from measureport.plan import dates
 from measureport.plan.context import CondFilter, Context, EqFilter, Filter, ShiftFilter, TableCol
-from measureport.plan.frames import AggRequest, Frame, FrameKind, IterRequest, RankRequest, Request, RowSet
+from measureport.plan.frames import AggRequest, Frame, FrameKind, IterRequest, RankRequest, RowSet
 from measureport.plan.names import Names
 from measureport.plan.scalar import (
     AggCall,
@@ -82,6 +82,7 @@ class Lowering:
         self._measures: dict[tuple[str, Context, int], Scalar] = {}
         self._aggs: dict[tuple[int, RowSet, Scalar], str] = {}
         self._reach: dict[str, frozenset[str]] = {}
+        # The query measures whose values each request feeds (filled by the query planner).
         self.askers: dict[int, list[str]] = {}
 
     # --- frames --------------------------------------------------------------------------
@@ -272,15 +273,7 @@ class Lowering:
             name = self.own(home, self.names.fresh("agg"))
             self._aggs[key] = name
             home.requests.append(AggRequest(name, rows, value, what))
-        self._ask(home.requests, name, st.measure)
         return Col(name)
-
-    def _ask(self, requests: list[Request], name: str, measure: str) -> None:
-        for request in requests:
-            if request.out == name:
-                asked = self.askers.setdefault(id(request), [])
-                if measure and measure not in asked:
-                    asked.append(measure)
 
     def _home(self, frame: Frame, columns: set[str]) -> Frame:
         chain = frame.ancestors()
@@ -347,7 +340,6 @@ class Lowering:
         out = self.own(parent, self.names.fresh("each"))
         request = IterRequest(out, child, node.function, argument, where, _text(node))
         parent.requests.append(request)
-        self._ask(parent.requests, out, st.measure)
         return Col(out)
 
     def _lower_Single(self, node: ast.Single, st: State) -> Scalar:
@@ -387,7 +379,6 @@ class Lowering:
         child.body_columns |= columns_used(value) | set(st.frame.key) | {current.name, member_col.name}
         out = self.own(st.frame, self.names.fresh("rank"))
         st.frame.requests.append(RankRequest(out, child, value, node.ascending, current.name, _text(node)))
-        self._ask(st.frame.requests, out, st.measure)
         return Case(((Compare("=", how_many, Const(1)), Col(out)),))
 
     # --- given ------------------------------------------------------------------------------------

@@ -7,6 +7,7 @@ within each node's output; joins require the two sides to have disjoint names.
 
 from __future__ import annotations
 
+from collections.abc import Callable
 from dataclasses import dataclass, field
 from functools import cached_property
 from typing import Literal
@@ -248,7 +249,7 @@ def walk(root: PlanNode) -> list[PlanNode]:
 
 
 def _cache_hash(cls: type) -> None:
-    computed = cls.__hash__
+    computed: Callable[[object], int] = vars(cls)["__hash__"]
 
     def cached(self: object) -> int:
         found: int | None = self.__dict__.get("_hash")
@@ -262,6 +263,7 @@ def _cache_hash(cls: type) -> None:
 
 def _all_subclasses(cls: type) -> list[type]:
     found: list[type] = []
+    sub: type
     for sub in cls.__subclasses__():
         found += [sub, *_all_subclasses(sub)]
     return found

@@ -46,6 +46,24 @@ def scalar_text(expr: S.Scalar) -> str:
             return f"case {parts} else {scalar_text(otherwise)} end"
         case S.Exists():
             return "exists(...)"
+        case S.IsNullTest(operand=operand, negated=negated):
+            return f"{scalar_text(operand)} is {'not ' if negated else ''}null"
+        case S.Negate(operand=operand):
+            return f"-{scalar_text(operand)}"
+        case S.InValues(operand=operand, items=items, negated=negated):
+            listed = ", ".join(scalar_text(i) for i in items)
+            return f"{scalar_text(operand)} {'not ' if negated else ''}in ({listed})"
+        case S.BetweenValues(operand=operand, low=low, high=high, negated=negated):
+            word = "not between" if negated else "between"
+            return f"{scalar_text(operand)} {word} {scalar_text(low)} and {scalar_text(high)}"
+        case S.LikeTest(operand=operand, pattern=pattern, negated=negated):
+            return f"{scalar_text(operand)} {'not ' if negated else ''}like {scalar_text(pattern)}"
+        case S.Func(name=name, args=args):
+            return f"{name}(" + ", ".join(scalar_text(a) for a in args) + ")"
+        case S.DatePartOf(part=part, operand=operand):
+            return f"{part}({scalar_text(operand)})"
+        case S.MakeDate(year=year, month=month, day=day):
+            return f"date({scalar_text(year)}, {scalar_text(month)}, {scalar_text(day)})"
     children = ", ".join(scalar_text(c) for c in expr.children())
     return f"{type(expr).__name__.lower()}({children})"
 

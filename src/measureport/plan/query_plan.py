@@ -23,7 +23,7 @@ from measureport.plan.nodes import (
     SortKey,
     UnionAll,
 )
-from measureport.plan.scalar import Case, Col, Compare, Const, IsNullTest, Or, Scalar, TypedNull
+from measureport.plan.scalar import Case, Col, Compare, Const, IsNullTest, Or, Scalar, TypedNull, columns_used
 from measureport.query import Query
 from measureport.semantics.bound import BoundModel
 
@@ -110,6 +110,8 @@ def _level_part(
     grid.key = tuple(grid_names)
     cell = report.add(*(EqFilter(c.table, c.column, Col(n)) for c, n in zip(by, grid_names, strict=True)))
     values = [lowering.measure(m, cell, grid) for m in query.measures]
+    for measure, value in zip(query.measures, values, strict=True):
+        _attribute(grid, measure, value, lowering.askers)
     requests.extend(grid.requests)
     final = builder.build_frame(grid, grid_node)
     items: list[tuple[str, Scalar]] = []
@@ -126,6 +128,43 @@ def _level_part(
     projected = Project(final, tuple(items), label=f"measures by {level} column(s)")
     kept = Or(tuple(IsNullTest(Col(m), negated=True) for m in query.measures))
     return Filter(projected, kept if len(query.measures) > 1 else kept.items[0], label="rows with a value")
+
+
+def _attribute(grid: Frame, measure: str, value: Scalar, askers: dict[int, list[str]]) -> None:
+    """Record ``measure`` as an asker of every request its value depends on, directly or through
+    the columns those requests read, and of everything inside the iterations it uses."""
+    producing: dict[str, Request] = {}
+    frames = [grid]
+    while frames:
+        frame = frames.pop()
+        for request in frame.requests:
+            producing[request.out] = request
+        frames.extend(frame.children)
+    pending = sorted(columns_used(value))
+    seen: set[str] = set()
+    while pending:
+        column = pending.pop()
+        if column in seen:
+            continue
+        seen.add(column)
+        found = producing.get(column)
+        if found is None:
+            continue
+        request = found
+        asked = askers.setdefault(id(request), [])
+        if measure not in asked:
+            asked.append(measure)
+        pending.extend(sorted(request.frame_columns()))
+        child = getattr(request, "child", None)
+        if isinstance(child, Frame):
+            pending.extend(_outs_inside(child))
+
+
+def _outs_inside(frame: Frame) -> list[str]:
+    outs = [r.out for r in frame.requests]
+    for child in frame.children:
+        outs += _outs_inside(child)
+    return outs
 
 
 def _column_type(lowering: Lowering, column: ast.ColumnRef) -> str:

@@ -229,6 +229,16 @@ class AddDays(Scalar):
 
 
 @dataclass(frozen=True)
+class LastDayOf(Scalar):
+    """The last day of the month of a date."""
+
+    operand: Scalar
+
+    def children(self) -> tuple[Scalar, ...]:
+        return (self.operand,)
+
+
+@dataclass(frozen=True)
 class IntDiv(Scalar):
     """Floor division of two integers (both operands non-negative where it is used)."""
 
@@ -329,7 +339,7 @@ def _transform_field(value: object, fn: Callable[[Scalar], Scalar | None]) -> ob
 
 
 def _cache_hash(cls: type) -> None:
-    computed = cls.__hash__
+    computed: Callable[[object], int] = vars(cls)["__hash__"]
 
     def cached(self: object) -> int:
         found: int | None = self.__dict__.get("_hash")
@@ -343,6 +353,7 @@ def _cache_hash(cls: type) -> None:
 
 def _all_subclasses(cls: type) -> list[type]:
     found: list[type] = []
+    sub: type
     for sub in cls.__subclasses__():
         found += [sub, *_all_subclasses(sub)]
     return found

@@ -167,6 +167,9 @@ class ScalarRenderer:
         moved = exp.DateAdd(this=self._op(node.operand), expression=self._op(node.days), unit=exp.var("DAY"))
         return exp.cast(moved, exp.DataType.build("DATE"))
 
+    def _LastDayOf(self, node: S.LastDayOf) -> exp.Expression:
+        return exp.LastDay(this=self.render(node.operand))
+
     def _IntDiv(self, node: S.IntDiv) -> exp.Expression:
         return exp.IntDiv(this=self._op(node.left), expression=self._op(node.right))
 

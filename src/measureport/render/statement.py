@@ -13,20 +13,37 @@ from measureport.render.relations import StatementRenderer
 
 @dataclass(frozen=True)
 class RenderedStatement:
-    """The sqlglot tree of a statement and how many times it reads each model table."""
+    """The sqlglot tree of a statement and how many times it reads each model table.
+
+    With ``hidden_last`` the tree's last output column is for engines only: :meth:`sql` and
+    :meth:`public_expression` leave it out, :meth:`sql` with ``everything`` keeps it."""
 
     expression: exp.Select
     scans: dict[str, int]
+    hidden_last: bool = False
 
-    def sql(self, dialect: str = "duckdb", pretty: bool = True) -> str:
+    def sql(self, dialect: str = "duckdb", pretty: bool = True, everything: bool = False) -> str:
         """The statement's text in ``dialect``; a construct the dialect cannot express raises."""
-        return self.expression.sql(
-            dialect=dialect, identify=True, pretty=pretty, unsupported_level=ErrorLevel.RAISE
-        )
+        columns = self.expression.expressions
+        if self.hidden_last and not everything:
+            self.expression.set("expressions", columns[:-1])
+        try:
+            return self.expression.sql(
+                dialect=dialect, identify=True, pretty=pretty, unsupported_level=ErrorLevel.RAISE
+            )
+        finally:
+            self.expression.set("expressions", columns)
+
+    def public_expression(self) -> exp.Select:
+        """The statement without its hidden column, as a tree of its own."""
+        public = self.expression.copy()
+        if self.hidden_last:
+            public.set("expressions", public.expressions[:-1])
+        return public
 
 
-def render_statement(root: Result) -> RenderedStatement:
+def render_statement(root: Result, hidden_last: bool = False) -> RenderedStatement:
     """Render the plan under ``root`` with sqlglot builders (no SQL text is assembled)."""
     renderer = StatementRenderer(root)
     expression = renderer.statement()
-    return RenderedStatement(expression, dict(renderer.scans))
+    return RenderedStatement(expression, dict(renderer.scans), hidden_last)

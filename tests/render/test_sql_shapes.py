@@ -1,0 +1,180 @@
+"""Golden shapes of the SQL for each lowering strategy, read back with sqlglot and checked as
+trees (never compared as text). Invented data: the tram network of tests/differential/tram.py.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Iterator
+
+import pytest
+import sqlglot
+from sqlglot import exp
+
+from differential.harness import Differential
+from differential.tram import tram_network
+
+MEASURES = """
+measure riders = sum(boardings.riders)
+measure boardings_n = count(boardings)
+measure faults = sum(inspections.faults)
+measure line_share = riders / (riders given clear stops)
+measure ytd = riders given to_date(days.day, year)
+measure last_year = riders given shift(days.day, -1, year)
+measure per_stop = mean(riders for each stops)
+measure doubled = sum(boardings.riders * 2 for each boardings)
+measure stop_rank = rank(riders over stops.name)
+measure nested_minus = riders - (boardings_n - faults)
+"""
+
+
+@pytest.fixture(scope="module")
+def tram() -> Iterator[Differential]:
+    model, data = tram_network()
+    diff = Differential(model, data, MEASURES)
+    yield diff
+    diff.close()
+
+
+def parsed(tram: Differential, measures: list[str], by: list[str], totals: bool = False) -> exp.Select:
+    """The statement for the query, parsed back from its DuckDB text (and checked against the
+    reference on the way, so every shape below is also a right answer)."""
+    tram.check(measures, by, totals=totals)
+    sql = tram.engine.compile(tram.query(measures, by, totals=totals)).sql
+    statements = sqlglot.parse(sql, read="duckdb")
+    assert len(statements) == 1
+    tree = statements[0]
+    assert isinstance(tree, exp.Select)
+    return tree
+
+
+def reads(select: exp.Select, table: str) -> bool:
+    """Whether ``select`` reads ``table`` in its own FROM or JOINs (not in nested selects)."""
+    sources = [select.args.get("from_"), *list(select.args.get("joins") or [])]
+    return any(isinstance(s.this, exp.Table) and s.this.name == table for s in sources if s is not None)
+
+
+def grouped_selects(tree: exp.Expression, table: str) -> list[exp.Select]:
+    return [s for s in tree.find_all(exp.Select) if s.args.get("group") and reads(s, table)]
+
+
+def group_width(select: exp.Select) -> int:
+    return len(select.args["group"].expressions)
+
+
+def test_plain_aggregate_is_grouped_by_the_grid_column_and_joined_null_safe(tram: Differential) -> None:
+    tree = parsed(tram, ["riders"], ["stops.name"])
+    (aggregate,) = grouped_selects(tree, "boardings")
+    assert group_width(aggregate) == 1
+    assert any(isinstance(n, exp.Sum) for n in aggregate.find_all(exp.Sum))
+    # The grid (with the empty member) is joined to the aggregate with IS NOT DISTINCT FROM.
+    assert tree.find(exp.NullSafeEQ) is not None
+    assert tree.args.get("order") is not None
+
+
+def test_clear_on_a_grid_column_is_a_join_back_at_the_coarser_grain(tram: Differential) -> None:
+    tree = parsed(tram, ["line_share"], ["lines.name", "stops.name"])
+    widths = sorted(group_width(s) for s in grouped_selects(tree, "boardings"))
+    # One aggregate at the grid's grain (2 columns), one at the grain without stops (1 column).
+    assert widths == [1, 2]
+
+
+def test_division_is_true_division_with_a_null_for_a_zero_divisor(tram: Differential) -> None:
+    tree = parsed(tram, ["line_share"], ["stops.name"])
+    division = tree.find(exp.Div)
+    assert division is not None
+    assert isinstance(division.this, exp.Cast) and division.this.to.this == exp.DataType.Type.DOUBLE
+    assert isinstance(division.expression, exp.Nullif)
+
+
+def test_measures_over_the_same_rows_share_one_aggregate(tram: Differential) -> None:
+    tree = parsed(tram, ["riders", "boardings_n"], ["stops.zone"])
+    (aggregate,) = grouped_selects(tree, "boardings")
+    assert aggregate.find(exp.Sum) is not None and aggregate.find(exp.Count) is not None
+
+
+def test_a_year_to_date_is_a_range_join_on_per_row_parameters(tram: Differential) -> None:
+    tree = parsed(tram, ["ytd"], ["days.month"])
+    (aggregate,) = [s for s in tree.find_all(exp.Select) if s.args.get("group") and s.find(exp.Sum)]
+    joins = aggregate.args.get("joins") or []
+    conditions = [j.args.get("on") for j in joins if j.args.get("on") is not None]
+    # The rows join distinct (start, last day) parameters on day >= start and day <= last.
+    assert any(c.find(exp.GTE) is not None and c.find(exp.LTE) is not None for c in conditions)
+    assert any(s.args.get("distinct") for s in aggregate.find_all(exp.Select))
+
+
+def test_a_shift_joins_the_moved_days_as_a_set(tram: Differential) -> None:
+    tree = parsed(tram, ["last_year"], ["days.month"])
+    moved = [s for s in tree.find_all(exp.Select) if s.args.get("distinct") and s.find(exp.DateFromParts)]
+    assert moved, "the shifted days are a distinct set built with MAKE_DATE"
+
+
+def test_for_each_with_binding_is_a_nested_aggregation_weighted_by_row_counts(tram: Differential) -> None:
+    tree = parsed(tram, ["per_stop"], ["stops.zone"])
+    # Stops grouped by their key with a row count, and the outer mean weights by it.
+    stop_groups = grouped_selects(tree, "stops")
+    assert any(isinstance(c.this, exp.Star) for s in stop_groups for c in s.find_all(exp.Count))
+    weighted = [
+        m
+        for m in tree.find_all(exp.Mul)
+        if isinstance(m.parent, exp.Sum) and any(c.name == "w" for c in m.find_all(exp.Column))
+    ]
+    assert weighted, "SUM(value * w): each value counts as many times as its identical rows"
+
+
+def test_a_row_expression_iteration_is_one_aggregate_of_the_expression(tram: Differential) -> None:
+    tree = parsed(tram, ["doubled"], ["stops.name"])
+    (aggregate,) = grouped_selects(tree, "boardings")
+    total = aggregate.find(exp.Sum)
+    assert total is not None and total.find(exp.Mul) is not None
+
+
+def test_rank_is_a_dense_rank_window_partitioned_by_the_rest_of_the_grid(tram: Differential) -> None:
+    tree = parsed(tram, ["stop_rank"], ["lines.name", "stops.name"])
+    window = tree.find(exp.Window)
+    assert window is not None and isinstance(window.this, exp.DenseRank)
+    assert window.args.get("partition_by"), "partitioned by the grid columns other than stops.name"
+    (ordered,) = window.args["order"].expressions
+    assert ordered.args.get("desc") is True
+
+
+def _union_parts(union: exp.Expression) -> list[exp.Expression]:
+    if isinstance(union, exp.Union):
+        return _union_parts(union.this) + _union_parts(union.expression)
+    return [union]
+
+
+def test_totals_are_levels_re_evaluated_and_unioned(tram: Differential) -> None:
+    tree = parsed(tram, ["riders"], ["lines.name", "stops.name"], totals=True)
+    levels = [
+        u
+        for u in tree.find_all(exp.Union)
+        if not isinstance(u.parent, exp.Union)
+        and any(p.alias_or_name == "__level" for p in _union_parts(u)[0].expressions)
+    ]
+    (union,) = levels
+    assert union.args.get("distinct") is False  # UNION ALL
+    assert len(_union_parts(union)) == 3  # by two columns, by one, by none
+    widths = sorted(group_width(s) for s in grouped_selects(tree, "boardings"))
+    assert widths == [1, 2]  # the grand total's aggregate has no GROUP BY
+
+
+def test_a_sub_plan_used_twice_is_one_common_table_expression(tram: Differential) -> None:
+    tree = parsed(tram, ["ytd"], ["days.month"])
+    with_ = tree.args.get("with_")
+    assert with_ is not None
+    names = [cte.alias for cte in with_.expressions]
+    used = [t.name for t in tree.find_all(exp.Table)]
+    assert any(used.count(name) >= 2 for name in names)
+
+
+def test_nested_subtraction_keeps_its_parentheses(tram: Differential) -> None:
+    # riders - (boardings_n - faults) must not become riders - boardings_n - faults.
+    tree = parsed(tram, ["nested_minus"], ["stops.zone"])
+    outer = [s for s in tree.find_all(exp.Sub) if isinstance(s.expression, exp.Paren)]
+    assert outer and isinstance(outer[0].expression.this, exp.Sub)
+
+
+def test_every_identifier_is_quoted(tram: Differential) -> None:
+    tree = parsed(tram, ["line_share", "ytd", "per_stop"], ["stops.name"])
+    identifiers = list(tree.find_all(exp.Identifier))
+    assert identifiers and all(i.args.get("quoted") for i in identifiers)
