@@ -100,10 +100,13 @@ def test_apply_to_a_missing_database_file_is_bad_input(orchard: Path, tmp_path: 
 def test_apply_needs_the_dialect_of_the_database(orchard: Path, tmp_path: Path) -> None:
     database = tmp_path / "warehouse.duckdb"
     create_duckdb_tables(orchard, database)
-    code, _, stderr = invoke("views", orchard, "--dialect", "sqlite", "--apply", database)
+    out = tmp_path / "v"
+    code, _, stderr = invoke("views", orchard, "--dialect", "sqlite", "--out", out, "--apply", database)
     assert code == 2
     assert "written for sqlite" in stderr and "--dialect duckdb" in stderr
     assert "kilos_by_variety" not in duckdb_objects(database)
+    # Found before anything is written.
+    assert not out.exists()
 
 
 def test_apply_from_python_returns_the_views_created(orchard: Path, tmp_path: Path) -> None:

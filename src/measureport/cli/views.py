@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 from pathlib import Path
+from typing import TYPE_CHECKING
 
 import click
 
@@ -10,6 +11,9 @@ from measureport.cli.failures import EXIT_MISMATCH
 from measureport.cli.options import model_argument
 from measureport.cli.progress import working
 from measureport.workspace import Workspace
+
+if TYPE_CHECKING:
+    from measureport.views import GeneratedViews
 
 
 def _count(n: int, noun: str) -> str:
@@ -43,7 +47,8 @@ def views(
     any is stale, missing or left over). With --apply, create every view in the database, or
     none when one fails.
     """
-    from measureport.views import apply_views, check_views, generate_views, write_views
+    from measureport.views import generate_views
+    from measureport.views.apply import target_for
 
     if check and (force or target):
         raise click.UsageError("--check writes nothing, so it cannot be combined with --force or --apply")
@@ -55,32 +60,54 @@ def views(
         generated = generate_views(workspace.bound, dialect)
     if check:
         assert out_dir is not None
-        found = check_views(generated, out_dir)
-        labelled = (("stale", found.stale), ("missing", found.missing), ("left over", found.left_over))
-        for label, paths in labelled:
-            for path in paths:
-                click.echo(f"{label}: {path}")
-        if found.up_to_date:
-            click.echo(f"up to date: {_count(len(generated.views), 'view')} for {dialect} in {out_dir}")
-            return
-        click.echo(
-            f"the view files in {out_dir} are not up to date; write them again with "
-            f"measureport views {model} --dialect {dialect} --out {out_dir} --force",
-            err=True,
-        )
-        click.get_current_context().exit(EXIT_MISMATCH)
-    if out_dir is not None:
-        written = write_views(generated, out_dir, force)
-        for path in written.written:
-            click.echo(f"wrote {path}")
-        for path in written.removed:
-            click.echo(f"removed {path} (its view is no longer in the model)")
-        click.echo(
-            f"{_count(len(generated.views), 'view')} for {dialect} in {out_dir}: "
-            f"{_count(len(written.written), 'file')} written, {len(written.unchanged)} unchanged"
-        )
+        _check(generated, out_dir, model)
+        return
     if target:
-        with working("creating the views"):
-            applied = apply_views(generated, target)
-        created = _count(len(applied.views), "view")
-        click.echo(f"created {created} in {applied.target}: {', '.join(applied.views)}")
+        target_for(generated, target)  # a database of another dialect stops before any file is written
+    if out_dir is not None:
+        _write(generated, out_dir, force)
+    if target:
+        _apply(generated, target)
+
+
+def _check(generated: GeneratedViews, out_dir: Path, model: str) -> None:
+    from measureport.views import check_views
+
+    dialect = generated.dialect.name
+    found = check_views(generated, out_dir)
+    labelled = (("stale", found.stale), ("missing", found.missing), ("left over", found.left_over))
+    for label, paths in labelled:
+        for path in paths:
+            click.echo(f"{label}: {path}")
+    if found.up_to_date:
+        click.echo(f"up to date: {_count(len(generated.views), 'view')} for {dialect} in {out_dir}")
+        return
+    click.echo(
+        f"the view files in {out_dir} are not up to date; write them again with "
+        f"measureport views {model} --dialect {dialect} --out {out_dir} --force",
+        err=True,
+    )
+    click.get_current_context().exit(EXIT_MISMATCH)
+
+
+def _write(generated: GeneratedViews, out_dir: Path, force: bool) -> None:
+    from measureport.views import write_views
+
+    written = write_views(generated, out_dir, force)
+    for path in written.written:
+        click.echo(f"wrote {path}")
+    for path in written.removed:
+        click.echo(f"removed {path} (its view is no longer in the model)")
+    click.echo(
+        f"{_count(len(generated.views), 'view')} for {generated.dialect.name} in {out_dir}: "
+        f"{_count(len(written.written), 'file')} written, {len(written.unchanged)} unchanged"
+    )
+
+
+def _apply(generated: GeneratedViews, target: str) -> None:
+    from measureport.views import apply_views
+
+    with working("creating the views"):
+        applied = apply_views(generated, target)
+    created = _count(len(applied.views), "view")
+    click.echo(f"created {created} in {applied.target}: {', '.join(applied.views)}")

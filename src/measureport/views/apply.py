@@ -7,7 +7,7 @@ from dataclasses import dataclass
 from measureport.errors import MeasureportError
 from measureport.views.generate import GeneratedViews
 from measureport.views.statements import drop_view, render
-from measureport.views.targets import Step, StepFailed, open_target
+from measureport.views.targets import Step, StepFailed, ViewTarget, open_target
 
 
 @dataclass(frozen=True)
@@ -29,10 +29,8 @@ def apply_steps(generated: GeneratedViews) -> list[Step]:
     return steps
 
 
-def apply_views(generated: GeneratedViews, target: str) -> AppliedViews:
-    """Create the views of ``generated`` in ``target`` (a DuckDB database file or a
-    ``postgresql://`` URL) in one transaction. On any failure nothing is changed and the
-    :class:`MeasureportError` names the view that failed."""
+def target_for(generated: GeneratedViews, target: str) -> ViewTarget:
+    """The database ``target`` names, once it is known to take the dialect of ``generated``."""
     database = open_target(target)
     if database.dialect != generated.dialect.name:
         raise MeasureportError(
@@ -40,6 +38,14 @@ def apply_views(generated: GeneratedViews, target: str) -> AppliedViews:
             f"needs the {database.dialect} dialect",
             hint=f"generate them with --dialect {database.dialect}",
         )
+    return database
+
+
+def apply_views(generated: GeneratedViews, target: str) -> AppliedViews:
+    """Create the views of ``generated`` in ``target`` (a DuckDB database file or a
+    ``postgresql://`` URL) in one transaction. On any failure nothing is changed and the
+    :class:`MeasureportError` names the view that failed."""
+    database = target_for(generated, target)
     try:
         database.run_in_transaction(apply_steps(generated))
     except StepFailed as failure:
