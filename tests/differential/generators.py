@@ -236,7 +236,11 @@ class MeasureWriter:
             leaves.append("let_ref")
         if self.names:
             leaves.append("measure")
-        branches = ["arith", "function", "if", "given", "each", "rank", "let", "single"] if depth > 0 else []
+        branches = (
+            ["arith", "function", "if", "given", "each", "rank", "let", "single", "restricted"]
+            if depth > 0
+            else []
+        )
         kind = self.pick(leaves + branches)
         d = depth - 1
         if kind == "aggregate":
@@ -279,6 +283,9 @@ class MeasureWriter:
             value = self.number(d, scope)
             inner = Scope(scope.row_numbers, scope.row_texts, [*scope.lets, name], scope.in_iteration)
             return f"(let {name} = {value}\n {self.number(d, inner)})"
+        if kind == "restricted":
+            column = self.pick(self._text_columns(self.schema.dims))
+            return f"(if restricted({column}) then {self.number(d, scope)} else {self.number(d, scope)})"
         # single of a number column of a dimension
         return f"coalesce(single(a.size), {self.number(d, scope)})"
 
@@ -294,18 +301,30 @@ class MeasureWriter:
         return [f"{t}.{c}" for t in tables for c in self.schema.texts.get(t, [])]
 
     def condition(self, depth: int, scope: Scope) -> str:
-        kind = self.pick(["compare", "null", "text"] if scope.row_texts else ["compare", "null"])
+        kinds = ["compare", "null", "between", "in", "single"]
+        if scope.row_texts:
+            kinds += ["text", "like"]
+        kind = self.pick(kinds)
         if kind == "compare":
             op = self.pick([">", ">=", "=", "!=", "<"])
             return f"{self.number(depth, scope)} {op} {self.number(depth, scope)}"
         if kind == "null":
             return f"{self.number(depth, scope)} is {self.pick(['', 'not '])}null"
-        return f'{self.pick(scope.row_texts)} = "{self.pick([*WORDS, "u", "p"])}"'
+        if kind == "between":
+            return f"{self.number(depth, scope)} {self.pick(['', 'not '])}between 0 and 3"
+        if kind == "in":
+            return f"{self.number(depth, scope)} {self.pick(['', 'not '])}in (0, 1, 7)"
+        if kind == "single":
+            return f'single(a.name) = "{self.pick(WORDS)}"'
+        column = self.pick(scope.row_texts)
+        if kind == "like":
+            return f'{column} {self.pick(["", "not "])}like "{self.pick(["o%", "%a_", "%"])}"'
+        return f'{column} = "{self.pick([*WORDS, "u", "p"])}"'
 
     def iteration(self, depth: int, scope: Scope) -> str:
         fn = self.pick(["sum", "count", "min", "max", "mean", "distinct"])
         if self.pick([True, False]):
-            table = self.pick([*self.schema.facts, "a"])
+            table = self.pick([*self.schema.facts, *self.schema.dims])
             reach = self.schema.reach(table)
             numbers = [f"{t}.{c}" for t in reach for c in self.schema.numbers.get(t, [])]
             texts = self._text_columns(reach)
@@ -315,7 +334,14 @@ class MeasureWriter:
             if self.pick([False, True]):
                 where = f" where {self.condition(0, inner)}"
             return f"{fn}({body} for each {table}{where})"
-        cols = self.pick([*self._text_columns(self.schema.dims), "a.name, a.size"])
+        pairs = ["a.name, a.size"]
+        if self.schema.has_cal:
+            pairs.append("a.name, cal.month")  # closest common table: f
+        if self.schema.has_b:
+            pairs.append("b.label, a.name")
+        if self.schema.has_c:
+            pairs.append("c.region, a.name")  # a reaches c: a is the closest table
+        cols = self.pick([*self._text_columns(self.schema.dims), *pairs])
         row_numbers = ["a.size"] if "a.size" in cols else []
         row_texts = [c.strip() for c in cols.split(",") if c.strip() != "a.size"]
         inner = Scope(row_numbers + scope.row_numbers, row_texts + scope.row_texts, scope.lets, True)
@@ -326,7 +352,7 @@ class MeasureWriter:
         return ", ".join(self.modifier(scope) for _ in range(count))
 
     def modifier(self, scope: Scope) -> str:
-        options = ["set", "in", "narrow", "clear_col", "clear_table", "clear_but", "outside"]
+        options = ["set", "in", "narrow", "clear_col", "clear_table", "clear_but", "outside", "outside_equal"]
         if scope.in_iteration:
             options.append("row")
         if self.schema.has_cal:
@@ -346,7 +372,12 @@ class MeasureWriter:
         if kind == "clear_but":
             return "clear a but a.name"
         if kind == "outside":
-            return "a.size >= max(a.size)"
+            return self.pick(["a.size >= max(a.size)", "f.n1 < mean(f.n1)"])
+        if kind == "outside_equal":
+            equalities = ["a.size = single(a.size)", "f.n1 = max(f.n1)", "a.name = single(a.name)"]
+            if self.schema.has_cal:
+                equalities.append("cal.day = max(cal.day)")
+            return self.pick(equalities)
         if kind == "row":
             return "row"
         if kind == "to_date":
@@ -378,5 +409,14 @@ def queries(draw: st.DrawFn, schema: Schema) -> tuple[list[str], list[str], bool
     by = draw(st.lists(st.sampled_from(schema.group_columns()), max_size=3, unique=True))
     where = []
     if draw(st.booleans()):
-        where.append(draw(st.sampled_from(['a.name != "oak"', "f.n1 > 0", "a.size is null"])))
+        filters = [
+            'a.name != "oak"',
+            "f.n1 > 0",
+            "a.size is null",
+            'f.t1 in ("u", "w")',
+            "a.size between 1 and 4",
+        ]
+        if schema.has_cal:
+            filters.append('cal.month >= "2025-02"')
+        where.append(draw(st.sampled_from(filters)))
     return by, where, draw(st.booleans())

@@ -69,6 +69,13 @@ class RowsRelation:
     columns: dict[TableCol, str]
     carried: dict[str, str] = field(default_factory=dict)
     uses_params: bool = False
+    plain: set[int] = field(default_factory=set)  # keys matched with "=" (never a null)
+
+    def key_test(self, index: int, frame_value: Scalar, column: Scalar) -> Scalar:
+        """The join test of key ``index``: null-safe equality, or "=" for a condition's value."""
+        if index in self.plain:
+            return Compare("=", column, frame_value)
+        return NullSafeEq(frame_value, column)
 
     def local(self, expr: Scalar) -> Scalar:
         """``expr`` (over table columns and carried frame columns) over this relation's columns."""
@@ -168,14 +175,21 @@ class Builder:
         part: PlanNode,
         keys: Sequence[tuple[str, Scalar]],
         outs: list[tuple[str, str]],
+        rr: RowsRelation | None = None,
     ) -> PlanNode:
-        """``frame_rel`` left-joined to ``part`` where each key column equals its frame value."""
+        """``frame_rel`` left-joined to ``part`` where each key column equals its frame value
+        (null-safe, unless ``rr`` says a key is matched with "=")."""
         items: list[tuple[str, Scalar]] = []
         conditions: list[Scalar] = []
-        for local, frame_value in keys:
+        for i, (local, frame_value) in enumerate(keys):
             name = self.names.fresh("key")
             items.append((name, Col(local)))
-            conditions.append(NullSafeEq(frame_value, Col(name)))
+            test = (
+                rr.key_test(i, frame_value, Col(name))
+                if rr is not None
+                else NullSafeEq(frame_value, Col(name))
+            )
+            conditions.append(test)
         items += [(out, Col(local)) for out, local in outs]
         renamed = Project(part, tuple(items))
         condition = conjunction(conditions) or Const(True, "boolean")
@@ -200,7 +214,7 @@ class Builder:
             self.strategies.append(Strategy(request, words, list(requests), self.lowering.askers))
         outs = [(r.out, f"v{i}") for i, r in enumerate(requests)]
         frame_keys = [(f"k{i}", value) for i, (_, value) in enumerate(rr.keys)]
-        return self._join_back(relation, node, frame_keys, outs)
+        return self._join_back(relation, node, frame_keys, outs, rr)
 
     def _direct(self, request: IterRequest) -> AggRequest | None:
         """An iteration whose body reads only its current row (and values of enclosing frames)
@@ -282,10 +296,10 @@ class Builder:
             rows = Distinct(Project(rr.node, (*keys, *values)))
         items: list[tuple[str, Scalar]] = []
         conditions: list[Scalar] = []
-        for (local, _), (_, frame_value) in zip(keys, rr.keys, strict=True):
+        for i, ((local, _), (_, frame_value)) in enumerate(zip(keys, rr.keys, strict=True)):
             name = self.names.fresh("key")
             items.append((name, Col(local)))
-            conditions.append(NullSafeEq(frame_value, Col(name)))
+            conditions.append(rr.key_test(i, frame_value, Col(name)))
         items += [(name, Col(f"c{i}")) for i, (_, name) in enumerate(env)]
         if child.weight is not None:
             items.append((child.weight, Col("w")))
@@ -306,6 +320,8 @@ class Builder:
         static = [f for f in filters if not f.frame_columns() and not isinstance(f, ShiftFilter)]
         equal = [f for f in filters if isinstance(f, EqFilter) and f.frame_columns()]
         dynamic = [f for f in filters if f not in static and not isinstance(f, EqFilter)]
+        # ``t.c = value`` with a value from outside: a grouping key matched with "=".
+        plain_equal = [f for f in dynamic if _plain_equality(f) is not None]
         where_frame = columns_used(rows.where) if rows.where is not None else set()
         needed = set(wanted)
         for f in filters:
@@ -316,13 +332,19 @@ class Builder:
             needed |= set(rows.distinct)
         base, columns = self.base_rows(rows.table, rows.with_empty, needed)
         static_preds = [_local_filter(f, columns, {}) for f in static]
-        use_params = bool(dynamic or carried or where_frame)
+        use_params = bool([f for f in dynamic if f not in plain_equal] or carried or where_frame)
+        plain: set[int] = set()
         if not use_params:
             node = base
             keys: list[tuple[str, Scalar]] = []
             for f in equal:
                 assert isinstance(f, EqFilter)
                 keys.append((columns[TableCol(f.table, f.column)], f.value))
+            for f in plain_equal:
+                found = _plain_equality(f)
+                assert found is not None
+                plain.add(len(keys))
+                keys.append((columns[found[0]], found[1]))
             predicate = conjunction(static_preds)
             if predicate is not None:
                 node = FilterNode(node, predicate)
@@ -332,7 +354,7 @@ class Builder:
             node, keys, carried_map = self._with_params(
                 base, columns, static_preds, equal, dynamic, carried, where_frame, frame_rel
             )
-        rr = RowsRelation(node, keys, columns, carried_map, use_params)
+        rr = RowsRelation(node, keys, columns, carried_map, use_params, plain)
         if rows.where is not None:
             rr.node = FilterNode(rr.node, rr.local(rows.where))
         if rows.distinct is not None:
@@ -402,7 +424,10 @@ class Builder:
             day_name = self.names.fresh("day")
             items = [(renamed[local], Col(local)) for local, _ in days.keys] + [(day_name, Col(day_col))]
             moved = Project(days.node, tuple(items))
-            on = [NullSafeEq(Col(params[value]), Col(renamed[local])) for local, value in days.keys]
+            on = [
+                days.key_test(i, Col(params[value]), Col(renamed[local]))
+                for i, (local, value) in enumerate(days.keys)
+            ]
             p_node = Join(p_node, moved, "inner", conjunction(on) or Const(True, "boolean"))
             conditions.append(Compare("=", Col(row_day), Col(day_name)))
         rows_node: PlanNode = base
@@ -426,7 +451,7 @@ class Builder:
         items: list[tuple[str, Scalar]] = [(local, Col(local)) for local, _ in rr.keys]
         items.append(("day", moved))
         node = Distinct(FilterNode(Project(rr.node, tuple(items)), IsNullTest(Col("day"), negated=True)))
-        return RowsRelation(node, rr.keys, {}), "day"
+        return RowsRelation(node, rr.keys, {}, plain=rr.plain), "day"
 
     def base_rows(
         self, table: str, with_empty: bool, needed: set[TableCol]
@@ -511,6 +536,7 @@ class Builder:
         keyed = [
             f"{f.table}.{f.column}" for f in rows.filters if isinstance(f, EqFilter) and f.frame_columns()
         ]
+        outside = [str(found[0]) for f in rows.filters if (found := _plain_equality(f)) is not None]
         what = f"aggregate of {rows.table}"
         if rows.distinct:
             what += " over the distinct " + ", ".join(str(c) for c in rows.distinct)
@@ -519,8 +545,10 @@ class Builder:
                 "correlated predicate: the distinct values it depends on (per frame row) are joined"
                 " to the rows they select, aggregated per value and joined back"
             )
-        elif keyed:
-            how = f"grouped by {', '.join(keyed)} and joined back on it"
+        elif keyed or outside:
+            how = f"grouped by {', '.join(keyed + outside)} and joined back on it"
+            if outside:
+                how += f" ({', '.join(outside)} matched to a value computed outside the given)"
             if frame.kind == "grid" and len(keyed) < len(frame.key):
                 how += f" (a coarser grain than the grid's {len(frame.key)} columns: a join-back)"
         elif frame.kind == "grid" and frame.key:
@@ -528,6 +556,17 @@ class Builder:
         else:
             how = "one value for every row of the frame (no filter depends on the row)"
         return f"{what}; {how}"
+
+
+def _plain_equality(f: Filter) -> tuple[TableCol, Scalar] | None:
+    """``(column, value)`` when ``f`` is ``t.c = value`` with a value computed outside."""
+    if not isinstance(f, CondFilter) or not isinstance(f.predicate, Compare) or f.predicate.op != "=":
+        return None
+    left, right = f.predicate.left, f.predicate.right
+    for column, value in ((left, right), (right, left)):
+        if isinstance(column, TableCol) and not table_columns(value) and columns_used(value):
+            return column, value
+    return None
 
 
 def _filter_columns(f: Filter) -> set[TableCol]:
