@@ -24,10 +24,15 @@ from typing import Any
 
 import pytest
 
+from contract.duck import database, result_table
 from contract.harbour import model_yaml, write_shared_files
+from contract.tables import CsvTable
 
 WORKERS = 3
-TIMEOUT_SECONDS = 120
+TIMEOUT_SECONDS = 300
+SHARED_MODEL = "harbour.yaml"
+# Grids that several modules read: one command each, with the measures of all those modules.
+SHARED_GRIDS: dict[str, tuple[str, ...]] = {"by_route": ("route.name",), "overall": ()}
 
 
 def console_script() -> str:
@@ -41,6 +46,20 @@ def console_script() -> str:
     return found
 
 
+def question_args(
+    measures: Sequence[str], by: Sequence[str] = (), where: Sequence[str] = (), *, totals: bool = False
+) -> list[str]:
+    """``-m M1,M2 [--by T.C,U.D] [--where COND]... [--totals]``."""
+    args = ["-m", ",".join(measures)]
+    if by:
+        args += ["--by", ",".join(by)]
+    for condition in where:
+        args += ["--where", condition]
+    if totals:
+        args.append("--totals")
+    return args
+
+
 def run_args(
     model: str,
     measures: Sequence[str],
@@ -51,14 +70,14 @@ def run_args(
     fmt: str = "csv",
 ) -> list[str]:
     """The arguments of ``measureport run MODEL -m ... --by ... --where ... [--totals] --format FMT``."""
-    args = ["run", model, "-m", ",".join(measures)]
-    if by:
-        args += ["--by", ",".join(by)]
-    for condition in where:
-        args += ["--where", condition]
-    if totals:
-        args.append("--totals")
-    return [*args, "--format", fmt]
+    return ["run", model, *question_args(measures, by, where, totals=totals), "--format", fmt]
+
+
+def sql_args(
+    model: str, measures: Sequence[str], by: Sequence[str] = (), *, dialect: str = "duckdb"
+) -> list[str]:
+    """The arguments of ``measureport sql MODEL -m ... --by ... --dialect DIALECT``."""
+    return ["sql", model, *question_args(measures, by), "--dialect", dialect]
 
 
 @dataclass(frozen=True)
@@ -92,58 +111,14 @@ class Outcome:
         return data
 
 
-@dataclass(frozen=True)
-class CsvTable:
-    """A parsed ``--format csv`` result: the header and the rows, all fields as text."""
-
-    header: list[str]
-    rows: list[list[str]]
-
-    def keys(self, width: int) -> list[tuple[str, ...]]:
-        """The first ``width`` fields (the grouping columns) of every row, in order."""
-        return [tuple(row[:width]) for row in self.rows]
-
-    def column(self, name: str) -> list[str]:
-        assert name in self.header, f"no column {name!r} in {self.header}"
-        index = self.header.index(name)
-        return [row[index] for row in self.rows]
-
-
-def same_value(actual: str, expected: object) -> bool:
-    """Whether a CSV field shows ``expected``: None is an empty field, numbers compare numerically."""
-    if expected is None:
-        return actual == ""
-    if isinstance(expected, bool | str):
-        return actual == str(expected)
-    if isinstance(expected, int | float):
-        try:
-            number = float(actual)
-        except ValueError:
-            return False
-        return number == pytest.approx(float(expected), rel=1e-9, abs=1e-12)
-    raise TypeError(f"unexpected expectation {expected!r}")
-
-
-def assert_column(table: CsvTable, measure: str, expected: Sequence[object]) -> None:
-    """Assert the column ``measure`` shows ``expected``, one value per row, in row order."""
-    actual = table.column(measure)
-    assert len(actual) == len(expected), f"{measure}: {actual} != {list(expected)}"
-    wrong = [(i, a, e) for i, (a, e) in enumerate(zip(actual, expected, strict=True)) if not same_value(a, e)]
-    assert not wrong, f"{measure}: got {actual}, expected {list(expected)}; (row, got, expected): {wrong}"
-
-
-SHARED_MODEL = "harbour.yaml"
-# Grids that several modules read: one command each, with the measures of all those modules.
-SHARED_GRIDS: dict[str, tuple[str, ...]] = {"by_route": ("route.name",), "overall": ()}
-
-
 class Bench:
     """One temporary folder with the shared data, and a pool that runs command lines in it.
 
     A test module declares ``TOPIC`` and ``COMMANDS`` (name -> arguments of ``measureport``), and
     optionally ``FILES`` (relative path -> text) and ``SHARED`` (a name of ``SHARED_GRIDS`` -> its
-    measures). The measure files ``TOPIC.measures`` of the modules with ``SHARED`` all go into
-    the model ``harbour.yaml``, and each shared grid is run once for all of them.
+    measures). The measure files ``TOPIC.measures`` of the modules with ``SHARED`` all go into the
+    model ``harbour.yaml``, and each shared grid is run once for all of them. A shared grid can
+    also be read through ``measureport sql``: its statement, run on DuckDB.
     """
 
     def __init__(self, root: Path, modules: Sequence[ModuleType]) -> None:
@@ -151,6 +126,8 @@ class Bench:
         self._pool = ThreadPoolExecutor(max_workers=WORKERS)
         self._script = console_script()
         self._runs: dict[tuple[str, str], Future[Outcome]] = {}
+        self._shared: dict[str, list[str]] = {}
+        self._through_sql: dict[str, CsvTable] = {}
         write_shared_files(root)
         for module in modules:
             self._write(getattr(module, "FILES", {}))
@@ -160,6 +137,7 @@ class Bench:
         for grid, by in SHARED_GRIDS.items():
             measures = list(dict.fromkeys(name for m in sharing for name in m.SHARED.get(grid, ())))
             if measures:
+                self._shared[grid] = measures
                 self._submit("shared", grid, run_args(SHARED_MODEL, measures, by))
         for module in modules:
             for name, args in module.COMMANDS.items():
@@ -172,6 +150,17 @@ class Bench:
         for grid in getattr(module, "SHARED", {}):
             done[grid] = self._runs[("shared", grid)].result()
         return done
+
+    def shared_table(self, grid: str, path: str) -> CsvTable:
+        """A shared grid as ``run`` prints it (``path`` "run"), or as the result of the statement
+        that ``sql`` prints for it, run on DuckDB (``path`` "sql")."""
+        if path == "run":
+            return self._runs[("shared", grid)].result().table()
+        if grid not in self._through_sql:
+            done = self._run(tuple(sql_args(SHARED_MODEL, self._shared[grid], SHARED_GRIDS[grid])))
+            assert done.returncode == 0, done.describe()
+            self._through_sql[grid] = result_table(database(self.root), done.stdout)
+        return self._through_sql[grid]
 
     def close(self) -> None:
         self._pool.shutdown(wait=True, cancel_futures=True)

@@ -8,6 +8,7 @@ from types import ModuleType
 import pytest
 
 from contract.bench import Bench, Outcome
+from contract.tables import Grid
 
 
 @pytest.fixture(scope="session")
@@ -27,3 +28,10 @@ def bench(request: pytest.FixtureRequest, tmp_path_factory: pytest.TempPathFacto
 def outcomes(request: pytest.FixtureRequest, bench: Bench) -> dict[str, Outcome]:
     """The outcomes of the calling module's ``COMMANDS`` and ``SHARED`` grids, by name."""
     return bench.outcomes(request.module)
+
+
+@pytest.fixture(params=["run", pytest.param("sql", marks=pytest.mark.slow)])
+def grid(request: pytest.FixtureRequest, bench: Bench) -> Grid:
+    """Read a shared grid by name: as ``run`` prints it, or (slow) through ``sql`` on DuckDB."""
+    path: str = request.param
+    return lambda name: bench.shared_table(name, path)

@@ -8,8 +8,9 @@ from __future__ import annotations
 
 import pytest
 
-from contract.bench import Outcome, assert_column, run_args
+from contract.bench import Outcome, run_args
 from contract.harbour import topic_files
+from contract.tables import Grid, assert_column
 
 TOPIC = "aggregates"
 MEASURES = """\
@@ -92,20 +93,20 @@ ONLY_NULL: dict[str, object] = {
 }
 
 
-def test_rows_by_route_are_ordered_with_the_empty_member_last(outcomes: dict[str, Outcome]) -> None:
-    table = outcomes["by_route"].table()
+def test_rows_by_route_are_ordered_with_the_empty_member_last(grid: Grid) -> None:
+    table = grid("by_route")
     assert table.header[0] == "route.name"
     assert table.column("route.name") == ROUTES
 
 
 @pytest.mark.parametrize("measure", ALL)
-def test_aggregate_by_route(outcomes: dict[str, Outcome], measure: str) -> None:
-    assert_column(outcomes["by_route"].table(), measure, BY_ROUTE[measure])
+def test_aggregate_by_route(grid: Grid, measure: str) -> None:
+    assert_column(grid("by_route"), measure, BY_ROUTE[measure])
 
 
 @pytest.mark.parametrize("measure", ALL)
-def test_aggregate_over_everything(outcomes: dict[str, Outcome], measure: str) -> None:
-    table = outcomes["overall"].table()
+def test_aggregate_over_everything(grid: Grid, measure: str) -> None:
+    table = grid("overall")
     assert "route.name" not in table.header  # no --by: only the measure names
     assert_column(table, measure, [OVERALL[measure]])
 

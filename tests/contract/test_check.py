@@ -6,8 +6,9 @@ from __future__ import annotations
 
 import re
 
-from contract.bench import Outcome, assert_column, run_args
+from contract.bench import Outcome, run_args
 from contract.harbour import ROUTES_CSV, topic_files
+from contract.tables import assert_column
 
 TOPIC = "check"
 MEASURES = """\

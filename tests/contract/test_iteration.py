@@ -9,8 +9,9 @@ from __future__ import annotations
 
 import pytest
 
-from contract.bench import Outcome, assert_column, run_args
+from contract.bench import Outcome, run_args
 from contract.harbour import topic_files
+from contract.tables import Grid, assert_column
 
 TOPIC = "iteration"
 MEASURES = """\
@@ -118,15 +119,15 @@ OVERALL: dict[str, object] = {
 }
 
 
-def test_rows(outcomes: dict[str, Outcome]) -> None:
-    assert outcomes["by_route"].table().column("route.name") == ROUTES
+def test_rows(outcomes: dict[str, Outcome], grid: Grid) -> None:
+    assert grid("by_route").column("route.name") == ROUTES
     # Gull Rock stays: active_months is 0 there, not null.
     assert outcomes["by_town"].table().column("harbour.town") == TOWNS
 
 
 @pytest.mark.parametrize("measure", ALL)
-def test_iteration_by_route(outcomes: dict[str, Outcome], measure: str) -> None:
-    assert_column(outcomes["by_route"].table(), measure, BY_ROUTE[measure])
+def test_iteration_by_route(grid: Grid, measure: str) -> None:
+    assert_column(grid("by_route"), measure, BY_ROUTE[measure])
 
 
 @pytest.mark.parametrize("measure", ALL)
@@ -135,5 +136,5 @@ def test_iteration_by_town(outcomes: dict[str, Outcome], measure: str) -> None:
 
 
 @pytest.mark.parametrize("measure", ALL)
-def test_iteration_over_everything(outcomes: dict[str, Outcome], measure: str) -> None:
-    assert_column(outcomes["overall"].table(), measure, [OVERALL[measure]])
+def test_iteration_over_everything(grid: Grid, measure: str) -> None:
+    assert_column(grid("overall"), measure, [OVERALL[measure]])

@@ -10,8 +10,8 @@ from __future__ import annotations
 
 import pytest
 
-from contract.bench import Outcome, assert_column
 from contract.harbour import topic_files
+from contract.tables import Grid, assert_column
 
 CASES = {
     # name: (condition, expected count, how)
@@ -49,6 +49,6 @@ COMMANDS: dict[str, list[str]] = {}
 
 
 @pytest.mark.parametrize("measure", list(CASES))
-def test_condition(outcomes: dict[str, Outcome], measure: str) -> None:
+def test_condition(grid: Grid, measure: str) -> None:
     _, expected, _ = CASES[measure]
-    assert_column(outcomes["overall"].table(), measure, [expected])
+    assert_column(grid("overall"), measure, [expected])

@@ -10,8 +10,9 @@ from __future__ import annotations
 
 import pytest
 
-from contract.bench import Outcome, assert_column, run_args
+from contract.bench import Outcome, run_args
 from contract.harbour import topic_files
+from contract.tables import Grid, assert_column
 
 TOPIC = "modifiers"
 MEASURES = """\
@@ -111,18 +112,18 @@ OVERALL: dict[str, object] = {
 }
 
 
-def test_route_rows(outcomes: dict[str, Outcome]) -> None:
-    assert outcomes["by_route"].table().column("route.name") == ROUTES
+def test_route_rows(grid: Grid) -> None:
+    assert grid("by_route").column("route.name") == ROUTES
 
 
 @pytest.mark.parametrize("measure", ROUTE_LEVEL)
-def test_modifier_by_route(outcomes: dict[str, Outcome], measure: str) -> None:
-    assert_column(outcomes["by_route"].table(), measure, BY_ROUTE[measure])
+def test_modifier_by_route(grid: Grid, measure: str) -> None:
+    assert_column(grid("by_route"), measure, BY_ROUTE[measure])
 
 
 @pytest.mark.parametrize("measure", ROUTE_LEVEL)
-def test_modifier_over_everything(outcomes: dict[str, Outcome], measure: str) -> None:
-    assert_column(outcomes["overall"].table(), measure, [OVERALL[measure]])
+def test_modifier_over_everything(grid: Grid, measure: str) -> None:
+    assert_column(grid("overall"), measure, [OVERALL[measure]])
 
 
 def test_clear_table_and_clear_but(outcomes: dict[str, Outcome]) -> None:

@@ -6,13 +6,13 @@ model; the rules are common practice, no source.
 from __future__ import annotations
 
 from decimal import Decimal
-from pathlib import Path
 
-import duckdb
 import pytest
 
-from contract.bench import Bench, Outcome, same_value
+from contract.bench import Bench, Outcome, sql_args
+from contract.duck import database
 from contract.harbour import model_yaml, topic_files
+from contract.tables import Grid, same_value
 
 TOPIC = "ported"
 MEASURES = """\
@@ -49,7 +49,7 @@ FILES = {
 }
 PORTED = ["passengers", "trips", "share", "seats_left", "ytd_trips"]
 COMMANDS = {
-    "sql": ["sql", f"{TOPIC}.yaml", "-m", ",".join(PORTED), "--by", "route.name", "--dialect", "duckdb"],
+    "sql": sql_args(f"{TOPIC}.yaml", PORTED, ["route.name"]),
     "diff_matching": [
         "diff", "viewed.yaml", "-m", "passengers,trips", "--by", "route.name",
         "--expected", "exports/matching.csv", "--map", "Route name=route.name", "--map", "Riders=passengers",
@@ -61,29 +61,6 @@ COMMANDS = {
     "views": ["views", "viewed.yaml", "--dialect", "duckdb", "--out", "generated"],
 }
 SHARED = {"by_route": PORTED}
-
-# The model's tables with the model's types, for running generated SQL by hand.
-TABLES = {
-    "sailings": ("data/sailings.csv", {
-        "sailing_id": "INTEGER", "route_id": "INTEGER", "day": "DATE", "passengers": "INTEGER",
-        "fare_total": "DECIMAL(12,2)",
-    }),
-    "route": ("data/routes.csv", {
-        "route_id": "INTEGER", "name": "VARCHAR", "harbour_id": "INTEGER", "capacity": "INTEGER",
-    }),
-    "harbour": ("data/harbours.csv", {"harbour_id": "INTEGER", "town": "VARCHAR"}),
-    "calendar": ("data/calendar.csv", {"day": "DATE", "month": "INTEGER", "year": "INTEGER"}),
-}
-
-
-def _database(root: Path) -> duckdb.DuckDBPyConnection:
-    con = duckdb.connect()
-    for name, (path, columns) in TABLES.items():
-        con.execute(
-            f'CREATE TABLE "{name}" AS SELECT * FROM read_csv(?, header = true, columns = ?)',
-            [str(root / path), columns],
-        )
-    return con
 
 
 def _close(a: object, b: object) -> bool:
@@ -105,7 +82,7 @@ PORTED_ROWS = [
 def test_sql_gives_the_rows_that_run_prints(outcomes: dict[str, Outcome], bench: Bench) -> None:
     done = outcomes["sql"]
     assert done.returncode == 0, done.describe()
-    con = _database(bench.root)
+    con = database(bench.root)
     result = con.execute(done.stdout)
     assert [d[0] for d in result.description] == ["route.name", *PORTED]
     rows = result.fetchall()
@@ -114,9 +91,9 @@ def test_sql_gives_the_rows_that_run_prints(outcomes: dict[str, Outcome], bench:
         assert all(_close(a, b) for a, b in zip(got, expected, strict=True)), (got, expected)
 
 
-def test_run_prints_the_same_values(outcomes: dict[str, Outcome]) -> None:
+def test_run_prints_the_same_values(grid: Grid) -> None:
     # The shared run by route.name holds more measures, so Night Owl has a row there too.
-    table = outcomes["by_route"].table()
+    table = grid("by_route")
     rows = {row[0]: row for row in table.rows}
     for name, *values in PORTED_ROWS:
         printed = rows[name or ""]
@@ -141,7 +118,7 @@ def test_views_writes_one_create_statement_per_view(outcomes: dict[str, Outcome]
     assert done.returncode == 0, done.describe()
     text = (bench.root / "generated" / "riders_by_route_year.sql").read_text(encoding="utf-8")
     assert "CREATE" in text.upper()
-    con = _database(bench.root)
+    con = database(bench.root)
     con.execute(text)
     result = con.execute("SELECT * FROM riders_by_route_year")
     names = [d[0] for d in result.description]

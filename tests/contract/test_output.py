@@ -9,8 +9,9 @@ Expected values are worked out by hand; the rules are common practice, no source
 
 from __future__ import annotations
 
-from contract.bench import Outcome, assert_column, run_args
+from contract.bench import Outcome, run_args
 from contract.harbour import topic_files
+from contract.tables import assert_column
 
 TOPIC = "output"
 MEASURES = """\

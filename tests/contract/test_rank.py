@@ -7,8 +7,9 @@ practice, no source.
 
 from __future__ import annotations
 
-from contract.bench import Outcome, assert_column, run_args
+from contract.bench import Outcome, run_args
 from contract.harbour import topic_files
+from contract.tables import Grid, assert_column
 
 TOPIC = "rank"
 MEASURES = """\
@@ -25,10 +26,10 @@ SHARED = {"by_route": ALL, "overall": ALL}
 COMMANDS = {"in_quayside": run_args(MODEL, ALL, ["route.name"], ['harbour.town = "Quayside"'])}
 
 
-def test_dense_rank_over_every_member(outcomes: dict[str, Outcome]) -> None:
+def test_dense_rank_over_every_member(grid: Grid) -> None:
     # Members of route.name: North Loop 450 passengers / 5 trips, East Cross 160 / 3,
     # South Shuttle 50 / 3, the empty member 25 / 1, Night Owl null (takes no place, ranks null).
-    table = outcomes["by_route"].table()
+    table = grid("by_route")
     assert table.column("route.name") == ["East Cross", "Night Owl", "North Loop", "South Shuttle", ""]
     assert_column(table, "load_rank", [2, None, 1, 3, 4])
     assert_column(table, "load_rank_up", [3, None, 4, 2, 1])
@@ -46,8 +47,8 @@ def test_rank_keeps_filters_on_other_columns(outcomes: dict[str, Outcome]) -> No
     assert_column(table, "trip_rank", [2, 1])
 
 
-def test_rank_is_null_when_several_members_are_visible(outcomes: dict[str, Outcome]) -> None:
-    table = outcomes["overall"].table()
+def test_rank_is_null_when_several_members_are_visible(grid: Grid) -> None:
+    table = grid("overall")
     assert_column(table, "passengers", [685])
     assert_column(table, "load_rank", [None])
     assert_column(table, "load_rank_up", [None])

@@ -12,8 +12,9 @@ from __future__ import annotations
 
 import pytest
 
-from contract.bench import Outcome, assert_column, run_args
+from contract.bench import Outcome, run_args
 from contract.harbour import topic_files
+from contract.tables import assert_column
 
 TOPIC = "windows"
 MEASURES = """\

@@ -9,8 +9,8 @@ from __future__ import annotations
 
 import pytest
 
-from contract.bench import Outcome, assert_column
 from contract.harbour import topic_files
+from contract.tables import Grid, assert_column
 
 TOPIC = "values"
 MEASURES = """\
@@ -137,15 +137,15 @@ OVERALL: dict[str, object] = {
 }
 
 
-def test_route_rows(outcomes: dict[str, Outcome]) -> None:
-    assert outcomes["by_route"].table().column("route.name") == ROUTES
+def test_route_rows(grid: Grid) -> None:
+    assert grid("by_route").column("route.name") == ROUTES
 
 
 @pytest.mark.parametrize("measure", ALL)
-def test_value_by_route(outcomes: dict[str, Outcome], measure: str) -> None:
-    assert_column(outcomes["by_route"].table(), measure, BY_ROUTE[measure])
+def test_value_by_route(grid: Grid, measure: str) -> None:
+    assert_column(grid("by_route"), measure, BY_ROUTE[measure])
 
 
 @pytest.mark.parametrize("measure", ALL)
-def test_value_over_everything(outcomes: dict[str, Outcome], measure: str) -> None:
-    assert_column(outcomes["overall"].table(), measure, [OVERALL[measure]])
+def test_value_over_everything(grid: Grid, measure: str) -> None:
+    assert_column(grid("overall"), measure, [OVERALL[measure]])
