@@ -20,7 +20,7 @@ from dataclasses import dataclass, field, replace
 
 from measureport.model.datafiles import file_format
 from measureport.model.graph import reachable
-from measureport.model.schema import Model
+from measureport.model.schema import Model, Relationship
 from measureport.plan import dates
 from measureport.plan.context import CondFilter, EqFilter, Filter, ShiftFilter, TableCol, table_columns
 from measureport.plan.frames import AggRequest, Frame, IterRequest, RankRequest, Request, RowSet
@@ -43,12 +43,15 @@ from measureport.plan.scalar import (
     AggCall,
     And,
     Arith,
+    BetweenValues,
     Case,
     Col,
     Compare,
     Const,
     Exists,
+    InValues,
     IsNullTest,
+    LikeTest,
     NullSafeEq,
     Or,
     Scalar,
@@ -330,9 +333,25 @@ class Builder:
             needed |= table_columns(rows.where)
         if rows.distinct:
             needed |= set(rows.distinct)
-        base, columns = self.base_rows(rows.table, rows.with_empty, needed)
-        static_preds = [_local_filter(f, columns, {}) for f in static]
         use_params = bool([f for f in dynamic if f not in plain_equal] or carried or where_frame)
+        via = self._prejoin_via(rows, dynamic, needed) if use_params else None
+        if via is None:
+            base, columns = self.base_rows(rows.table, rows.with_empty, needed)
+            dimension: Dimension | None = None
+        else:
+            # The dimension is joined to the parameters first, then to the rows by its key.
+            far = {tc for tc in needed if tc.table != via.one_table}
+            base, columns = self.base_rows(
+                rows.table, rows.with_empty, far | {TableCol(via.many_table, via.many_column)}
+            )
+            own = sorted({tc.column for tc in needed if tc.table == via.one_table} | {via.one_column})
+            columns.update({TableCol(via.one_table, c): self.names.of_column(via.one_table, c) for c in own})
+            dimension = Dimension(via, self._scan(via.one_table, own, False))
+        static_preds = [
+            _local_filter(f, columns, {}) for f in static if dimension is None or f.table != dimension.table
+        ]
+        if dimension is not None:
+            dimension.static = [_local_filter(f, columns, {}) for f in static if f.table == dimension.table]
         plain: set[int] = set()
         if not use_params:
             node = base
@@ -352,7 +371,7 @@ class Builder:
         else:
             assert frame_rel is not None
             node, keys, carried_map = self._with_params(
-                base, columns, static_preds, equal, dynamic, carried, where_frame, frame_rel
+                base, columns, static_preds, equal, dynamic, carried, where_frame, frame_rel, dimension
             )
         rr = RowsRelation(node, keys, columns, carried_map, use_params, plain)
         if rows.where is not None:
@@ -382,6 +401,7 @@ class Builder:
         carried: list[str],
         where_frame: set[str],
         frame_rel: PlanNode,
+        dimension: Dimension | None = None,
     ) -> tuple[PlanNode, list[tuple[str, Scalar]], dict[str, str]]:
         params: dict[Scalar, str] = {}
 
@@ -410,7 +430,11 @@ class Builder:
                         for c in sorted(columns_used(part)):
                             param(Col(c))
                 local = {c: c for c in columns_used(hoisted)}
-                conditions.append(_local_filter(replace(f, predicate=hoisted), columns, local))
+                test = _local_filter(replace(f, predicate=hoisted), columns, local)
+                if dimension is not None and f.table == dimension.table:
+                    dimension.conditions.append(test)
+                else:
+                    conditions.append(test)
         carried_map = {c: param(Col(c)) for c in carried}
         for c in sorted(where_frame):
             carried_map[c] = param(Col(c))
@@ -430,6 +454,16 @@ class Builder:
             ]
             p_node = Join(p_node, moved, "inner", conjunction(on) or Const(True, "boolean"))
             conditions.append(Compare("=", Col(row_day), Col(day_name)))
+        if dimension is not None:
+            chosen: PlanNode = dimension.scan
+            if dimension.static:
+                chosen = FilterNode(chosen, conjunction(dimension.static) or Const(True, "boolean"))
+            selects = conjunction(dimension.conditions) or Const(True, "boolean")
+            p_node = Join(p_node, chosen, "inner", selects, label=f"rows of {dimension.table} per parameter")
+            rel = dimension.via
+            many = columns[TableCol(rel.many_table, rel.many_column)]
+            one = columns[TableCol(rel.one_table, rel.one_column)]
+            conditions.append(Compare("=", Col(many), Col(one)))
         rows_node: PlanNode = base
         predicate = conjunction(static_preds)
         if predicate is not None:
@@ -441,6 +475,24 @@ class Builder:
             (name, value) for value, name in params.items() if isinstance(value, Col)
         ]
         return node, keys, carried_map
+
+    def _prejoin_via(self, rows: RowSet, dynamic: list[Filter], needed: set[TableCol]) -> Relationship | None:
+        """The relationship to a dimension whose rows a correlated condition selects and whose
+        empty member it never keeps: joining the parameters to that dimension first, then the
+        rows to it by key, is exact (an inner join loses only rows the condition rejects) and
+        much cheaper than testing the condition on every row."""
+        for rel in sorted(self.model.relationships_from(rows.table), key=str):
+            table = rel.one_table
+            on_it = [f for f in dynamic if f.table == table]
+            if not any(isinstance(f, CondFilter) and _rejects_nulls(f.predicate) for f in on_it):
+                continue
+            if any(isinstance(f, ShiftFilter) for f in on_it):
+                continue
+            beyond = set(reachable(self.model, table)) - {table}
+            if any(tc.table in beyond for tc in needed):
+                continue
+            return rel
+        return None
 
     def _shifted_days(self, f: ShiftFilter, frame_rel: PlanNode) -> tuple[RowsRelation, str]:
         """The distinct days visible in the shift's source context, moved, per frame value."""
@@ -556,6 +608,35 @@ class Builder:
         else:
             how = "one value for every row of the frame (no filter depends on the row)"
         return f"{what}; {how}"
+
+
+@dataclass
+class Dimension:
+    """A dimension joined to the parameters before the rows (see ``Builder._prejoin_via``)."""
+
+    via: Relationship
+    scan: PlanNode
+    static: list[Scalar] = field(default_factory=list)
+    conditions: list[Scalar] = field(default_factory=list)
+
+    @property
+    def table(self) -> str:
+        return self.via.one_table
+
+
+def _rejects_nulls(predicate: Scalar) -> bool:
+    """Whether ``predicate`` can never be true on a row whose table columns are all null (so
+    it never keeps an empty member): a test of a bare column, or an AND holding one."""
+    match predicate:
+        case And(items=items):
+            return any(_rejects_nulls(item) for item in items)
+        case Compare(left=left, right=right):
+            return isinstance(left, TableCol) or isinstance(right, TableCol)
+        case BetweenValues(operand=TableCol(), negated=False) | InValues(operand=TableCol(), negated=False):
+            return True
+        case LikeTest(operand=TableCol(), negated=False):
+            return True
+    return False
 
 
 def _plain_equality(f: Filter) -> tuple[TableCol, Scalar] | None:
