@@ -32,7 +32,7 @@ if TYPE_CHECKING:
 class SqlEngine(ABC):
     """An engine that runs SQL text on tables it loaded from the model's data."""
 
-    #: What the engine is called in messages and in the engine registry.
+    #: What the engine is called in messages.
     title: ClassVar[str]
     #: The dialect profile that queries are compiled with for this engine.
     dialect: ClassVar[str]
