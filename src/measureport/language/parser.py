@@ -10,21 +10,14 @@ import dataclasses
 from typing import Any
 
 from lark import Token, Tree
-from lark.exceptions import UnexpectedCharacters, UnexpectedInput, UnexpectedToken, VisitError
+from lark.exceptions import UnexpectedInput, VisitError
 
 from measureport.errors import MeasureportError, Span, remember_source, source_line
 from measureport.language import ast
 from measureport.language.descriptions import comment_block_above
+from measureport.language.diagnosis import diagnose
 from measureport.language.grammar import START_EXPRESSION, START_FILE, measure_parser
-from measureport.language.spans import token_span
-from measureport.language.syntax_errors import (
-    ParseSite,
-    unexpected_character,
-    unexpected_token,
-    unknown_function_message,
-)
 from measureport.language.tree_builder import TreeBuilder
-from measureport.language.words import FUNCTION_NAMES
 
 _BYTE_ORDER_MARK = "\ufeff"
 
@@ -74,93 +67,7 @@ def _parse_tree(text: str, file: str, start: str, origin: tuple[int, int] = (1, 
     except UnexpectedInput:
         pass
     # Read the text again, token by token, to say in words what went wrong where.
-    raise _diagnose(text, file, start, origin)
-
-
-def _diagnose(text: str, file: str, start: str, origin: tuple[int, int]) -> MeasureportError:
-    """The error for a text that does not parse, found by feeding its tokens one at a time."""
-    interactive = measure_parser().parse_interactive(text, start=start)
-    read: list[Token] = []
-    open_parens: list[Token] = []
-    try:
-        for token in interactive.iter_parse():
-            if _written_as_call(token, read[-1] if read else None):
-                return MeasureportError(unknown_function_message(read[-1].value), token_span(file, read[-1]))
-            read.append(token)
-            if token.type == "LPAR":
-                open_parens.append(token)
-            elif token.type == "RPAR" and open_parens:
-                open_parens.pop()
-        interactive.feed_eof(read[-1] if read else None)  # type: ignore[no-untyped-call]
-    except UnexpectedCharacters as error:
-        position = error.pos_in_stream if error.pos_in_stream is not None else len(text) - 1
-        return unexpected_character(file, text, position, error.line, error.column)
-    except UnexpectedToken as error:
-        if not read and error.token.type == "$END":
-            return MeasureportError("expected an expression", Span(file, *origin, *origin))
-        return _token_error(file, start, error.token, read, open_parens)
-    except UnexpectedInput as error:
-        return MeasureportError("this text cannot be read as a measure", Span(file, error.line, error.column))
-    return MeasureportError("this text cannot be read as a measure", Span(file, *origin, *origin))
-
-
-def _written_as_call(token: Token, previous: Token | None) -> bool:
-    """A name written straight against `(`: meant as a function call (see TreeBuilder.let_expr)."""
-    return (
-        token.type == "LPAR"
-        and previous is not None
-        and previous.type == "NAME"
-        and previous.end_pos == token.start_pos
-        and previous.value not in FUNCTION_NAMES
-    )
-
-
-def _token_error(
-    file: str, start: str, token: Token, read: list[Token], open_parens: list[Token]
-) -> MeasureportError:
-    before = read[:-1] if read and read[-1] is token else read
-    parens = list(open_parens)
-    if read and read[-1] is token:
-        # The token was counted when it was read; undo that for the state before it.
-        if token.type == "LPAR" and parens and parens[-1] is token:
-            parens.pop()
-        elif token.type == "RPAR":
-            parens = _open_parens(before)
-    site = ParseSite(
-        file=file,
-        start=start,
-        token=token,
-        previous=before[-1] if before else None,
-        open_parens=parens,
-        expected=_accepted_after(start, before),
-        let_name=_last_let_name(before),
-    )
-    return unexpected_token(site)
-
-
-def _last_let_name(tokens: list[Token]) -> str | None:
-    for index in range(len(tokens) - 2, -1, -1):
-        if tokens[index].type == "LET" and tokens[index + 1].type == "NAME":
-            return str(tokens[index + 1].value)
-    return None
-
-
-def _open_parens(tokens: list[Token]) -> list[Token]:
-    stack: list[Token] = []
-    for token in tokens:
-        if token.type == "LPAR":
-            stack.append(token)
-        elif token.type == "RPAR" and stack:
-            stack.pop()
-    return stack
-
-
-def _accepted_after(start: str, tokens: list[Token]) -> frozenset[str]:
-    """The terminals the grammar accepts after ``tokens`` (replayed into a fresh parser)."""
-    interactive = measure_parser().parse_interactive("", start=start)
-    for token in tokens:
-        interactive.feed_token(token)
-    return frozenset(interactive.accepts())  # type: ignore[no-untyped-call]
+    raise diagnose(text, file, start, origin)
 
 
 def _build(tree: Tree[Token], file: str, text: str) -> Any:
