@@ -49,7 +49,10 @@ EngineFactory = Callable[["Workspace"], Engine]
 
 DEFAULT_ENGINE = "reference"
 
+UrlEngineFactory = Callable[["Workspace", str], Engine]
+
 _ENGINES: dict[str, EngineFactory] = {}
+_URL_ENGINES: dict[str, UrlEngineFactory] = {}
 _plugins_loaded = False
 
 
@@ -64,9 +67,23 @@ def engine_names() -> tuple[str, ...]:
     return tuple(sorted(_ENGINES))
 
 
+def register_url_engine(scheme: str, factory: UrlEngineFactory) -> None:
+    """Make ``factory`` answer engine names that are URLs of ``scheme`` (``postgresql://...``,
+    ``sc://...``): it receives the workspace and the whole URL."""
+    _URL_ENGINES[scheme] = factory
+
+
 def engine_factory(name: str) -> EngineFactory:
-    """The factory registered as ``name``; an unknown name is a :class:`MeasureportError`."""
+    """The factory registered as ``name`` (or for the scheme of a URL such as
+    ``postgresql://host/db``); an unknown name is a :class:`MeasureportError`."""
     _load_engine_plugins()
+    if "://" in name:
+        scheme = name.split("://", 1)[0]
+        url_factory = _URL_ENGINES.get(scheme)
+        if url_factory is None:
+            schemes = ", ".join(f"{s}://" for s in sorted(_URL_ENGINES))
+            raise MeasureportError(f"no engine connects to {scheme}:// URLs; the URL engines are {schemes}")
+        return lambda workspace: url_factory(workspace, name)
     factory = _ENGINES.get(name)
     if factory is None:
         known = sorted(_ENGINES)

@@ -89,3 +89,24 @@ def test_reference_engine_answers_through_the_workspace() -> None:
     result = workspace.run(Query(("rides",), by=(ast.ColumnRef("stations", "name"),)))
     # By hand: Mill has ride 3, Quay rides 1 and 2, the orphan groups under the empty member, last.
     assert result.rows == [("Mill", 1), ("Quay", 2), (None, 1)]
+
+
+def test_url_engine_names_reach_the_factory_of_their_scheme() -> None:
+    # An engine name that is a URL goes to the factory registered for its scheme, whole URL given.
+    from measureport.workspace import register_url_engine
+
+    seen: list[str] = []
+
+    def factory(workspace: object, url: str) -> object:
+        seen.append(url)
+        return "an engine"
+
+    register_url_engine("testscheme", factory)  # type: ignore[arg-type]
+    made = engine_factory("testscheme://host:1/db")(None)  # type: ignore[arg-type]
+    assert made == "an engine"
+    assert seen == ["testscheme://host:1/db"]
+
+
+def test_unknown_url_scheme_is_bad_input() -> None:
+    with pytest.raises(MeasureportError, match=r"no engine connects to nosuch:// URLs"):
+        engine_factory("nosuch://host/db")

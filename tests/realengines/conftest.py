@@ -23,27 +23,6 @@ from realengines.engines import ALL_ENGINES, OpenEngine
 
 
 @pytest.fixture(scope="session")
-def postgres_url() -> Iterator[str]:
-    """A PostgreSQL database: $MEASUREPORT_POSTGRES_URL, else a throwaway server for the session."""
-    from measureport.engines.pgserver import ThrowawayPostgres, unavailable_reason
-    from measureport.engines.postgres import URL_VARIABLE
-
-    given = os.environ.get(URL_VARIABLE)
-    if given:
-        yield given
-        return
-    reason = unavailable_reason()
-    if reason is not None:
-        pytest.skip(reason)
-    server = ThrowawayPostgres()
-    server.start()
-    try:
-        yield server.url
-    finally:
-        server.stop()
-
-
-@pytest.fixture(scope="session")
 def spark_session() -> Iterator[Any]:
     """One local Spark session (local[2]) for every Spark test; the JVM ends with the session."""
     pytest.importorskip("pyspark")

@@ -29,21 +29,7 @@ def orchard(tmp_path: Path) -> Path:
     return write_orchard(tmp_path / "orchard", PORTABLE_VIEWS)
 
 
-try:
-    # The real-engine tests' PostgreSQL: $MEASUREPORT_POSTGRES_URL, else a throwaway server.
-    from realengines.conftest import postgres_url
-except ImportError:  # pragma: no cover - only while that suite is not there
-
-    @pytest.fixture(scope="session")
-    def postgres_url() -> Iterator[str]:
-        """A throwaway PostgreSQL server for the session (skipped where none can run)."""
-        from measureport.engines.pgserver import ThrowawayPostgres, unavailable_reason
-
-        reason = unavailable_reason()
-        if reason is not None:
-            pytest.skip(reason)
-        with ThrowawayPostgres() as server:
-            yield server.url
+# postgres_url: the session's throwaway PostgreSQL server, from tests/conftest.py.
 
 
 @pytest.fixture

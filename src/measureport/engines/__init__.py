@@ -5,7 +5,7 @@ from __future__ import annotations
 
 from typing import TYPE_CHECKING
 
-from measureport.workspace import register_engine
+from measureport.workspace import register_engine, register_url_engine
 
 if TYPE_CHECKING:
     from measureport.engines.duckdb import DuckDBEngine
@@ -67,3 +67,20 @@ register_engine("postgres", _postgres)
 register_engine("spark", _spark)
 register_engine("clickhouse", _clickhouse)
 register_engine("datafusion", _datafusion)
+
+
+def _postgres_at(workspace: Workspace, url: str) -> PostgresEngine:
+    from measureport.engines.postgres import PostgresEngine
+
+    return PostgresEngine.for_workspace(workspace, url=url)
+
+
+def _spark_at(workspace: Workspace, url: str) -> SparkEngine:
+    from measureport.engines.spark import SparkEngine
+
+    return SparkEngine.for_workspace(workspace, url=url)
+
+
+register_url_engine("postgresql", _postgres_at)
+register_url_engine("postgres", _postgres_at)
+register_url_engine("sc", _spark_at)
