@@ -32,6 +32,9 @@ measure big_sailings = count(1 for each sailings where sailings.passengers >= 70
 measure big_boat_trips = sum(trips for each route where route.capacity >= 80)
 # A measure in the where of a for each is bound to the row as well.
 measure busy_route_trips = sum(trips for each route where trips > 3)
+# Nested: the given binds the outer route row; without it the inner loop sees every sailing.
+measure nested_bound = sum(sum(sailings.passengers for each sailings) given row for each route)
+measure nested_unbound = sum(sum(sailings.passengers for each sailings) for each route)
 # Column iteration sees the empty member's null name as a member.
 measure route_names = count(1 for each route.name)
 """
@@ -41,6 +44,7 @@ ALL = [
     "empty_seats", "flat_max", "own_loads", "best_route_trips", "mean_route_trips",
     "mean_route_trips_zero", "busiest_month", "active_months", "route_years", "big_sailings",
     "big_boat_trips", "busy_route_trips", "route_names",
+    "nested_bound", "nested_unbound",
 ]
 SHARED = {"by_route": ALL, "overall": ALL}
 COMMANDS = {"by_town": run_args(MODEL, ALL, ["harbour.town"])}
@@ -80,6 +84,9 @@ BY_ROUTE: dict[str, list[object]] = {
     "big_boat_trips": [3, None, 5, None, None],
     "busy_route_trips": [None, None, 5, None, None],  # only North Loop has more than 3 trips
     "route_names": [1, 1, 1, 1, 1],
+    # One route per cell, so bound or not the inner sum is that route's passengers.
+    "nested_bound": [160, None, 450, 50, None],
+    "nested_unbound": [160, None, 450, 50, None],
 }
 
 BY_TOWN: dict[str, list[object]] = {
@@ -100,6 +107,8 @@ BY_TOWN: dict[str, list[object]] = {
     "busy_route_trips": [None, None, 5, None],
     # The empty route points at the empty town only.
     "route_names": [None, 2, 2, 1],
+    "nested_bound": [None, 50, 610, None],  # Pier Town: 50 + Night Owl's null
+    "nested_unbound": [None, 100, 1220, None],  # the town's passengers once per route
 }
 
 OVERALL: dict[str, object] = {
@@ -116,6 +125,8 @@ OVERALL: dict[str, object] = {
     "big_boat_trips": 8,
     "busy_route_trips": 5,
     "route_names": 5,  # four names and the empty member's null
+    "nested_bound": 450 + 160 + 50,  # sailing 11 has no route row to iterate
+    "nested_unbound": 685 * 4,
 }
 
 

@@ -3,7 +3,8 @@
 
 Passengers per sailing 1..12: 90, 100, 40, 20, 120, 80, 50, 30, 60, 70, 25, null.
 Route per sailing: 1, 1, 2, 3, 1, 1, 2, 3, 1, 2, 9, 3 (route 9 does not exist: no name).
-Expected counts are worked out by hand; the rules are common practice, no source.
+Expected counts are worked out by hand; the rules are common practice, no source. A count over
+no iterated row is null (rule 5).
 """
 
 from __future__ import annotations
@@ -36,6 +37,12 @@ CASES = {
         4,
         "and binds tighter: 20, 25, and 100, 120 on route 1",
     ),
+    "cmp_date": ('sailings.day < date "2025-01-01"', 4, "sailings 1-4, in 2024"),
+    "cmp_in_null": ("sailings.passengers in (20, null)", 1, "sailing 4; = null is never true"),
+    "cmp_not_in_null": ("sailings.passengers not in (20, null)", None, "never true: no row, so null"),
+    "cmp_between_reversed": ("sailings.passengers between 80 and 50", None, "no value is >= 80 and <= 50"),
+    "cmp_empty_name": ("route.name is null", 1, "sailing 11 points at the empty member"),
+    "cmp_quoted": ('route.name = "North ""Loop"""', None, 'no route is named North "Loop"'),
     "cmp_text_lt": ('route.name < "O"', 8, "East Cross 3 and North Loop 5; no name fails"),
 }
 TOPIC = "logic"

@@ -27,6 +27,7 @@ measure big_boats = passengers given route.capacity >= 80
 measure bound_max = sum(max(sailings.passengers) given row for each route)
 measure unbound_max = sum(max(sailings.passengers) for each route)
 measure bind_then_clear = sum(trips given clear route for each route)
+measure bind_then_clear_name = sum(trips given clear route.name for each route)
 measure bind_then_replace = sum(trips given route.name = "North Loop" for each route)
 measure outside_max = trips given clear route, sailings.passengers >= max(sailings.passengers)
 # Conditions apply left to right, each replacing or narrowing (rule 3).
@@ -44,6 +45,7 @@ MODEL = f"{TOPIC}.yaml"
 ROUTE_LEVEL = [
     "passengers", "north_only", "cross_or_shuttle", "narrowed", "all_routes", "route_share",
     "whole_share", "big_boats", "bound_max", "unbound_max", "bind_then_clear", "bind_then_replace",
+    "bind_then_clear_name",
     "outside_max", "replaced_twice", "replaced_then_narrowed", "narrowed_then_replaced",
     "clear_written_last",
 ]
@@ -81,6 +83,9 @@ BY_ROUTE: dict[str, list[object]] = {
     "bind_then_clear": [12, 12, 12, 12, None],
     # Binding puts every column of the route row (route_id too); the condition replaces only
     # route.name, so only route 1 named North Loop has trips.
+    # Clearing route.name after binding keeps the other bound columns (route_id, ...): each
+    # route's own trips.
+    "bind_then_clear_name": [3, None, 5, 3, None],
     "bind_then_replace": [None, None, 5, None, None],
     # max(sailings.passengers) is computed in the cell (rule 4), then route is cleared:
     # East: >= 70 -> sailings 1, 2, 5, 6, 10; North: >= 120 -> 5; South: >= 30 -> all but 20, 25
@@ -103,6 +108,7 @@ OVERALL: dict[str, object] = {
     "bound_max": 120 + 70 + 30,  # Night Owl's max is null
     "unbound_max": 120 * 4,  # the same overall max on each of the four routes
     "bind_then_clear": 12 * 4,
+    "bind_then_clear_name": 5 + 3 + 3,
     "bind_then_replace": 5,
     "outside_max": 1,  # >= 120
     "replaced_twice": 160,

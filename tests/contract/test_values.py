@@ -21,6 +21,10 @@ measure kept =
 measure shared =
   let everyone = (passengers given clear route.name)
   passengers / everyone
+# The let is the cell's value, not bound to each row of the loop.
+measure let_in_loop =
+  let total = passengers
+  sum(total for each sailings)
 measure busy_word = if passengers > 200 then "busy" else "quiet"
 measure busy_only = if passengers > 200 then passengers
 measure per_trip = passengers / trips
@@ -53,7 +57,7 @@ measure lit_date = trips given calendar.day >= date "2025-03-01"
 """
 FILES = topic_files(TOPIC, MEASURES)
 ALL = [
-    "passengers", "kept", "shared", "busy_word", "busy_only", "per_trip", "by_zero", "by_null",
+    "passengers", "kept", "shared", "let_in_loop", "busy_word", "busy_only", "per_trip", "by_zero", "by_null",
     "arithmetic", "quarter_trips", "plus_null", "zero_filled", "distance", "first_known", "mixed",
     "left_assoc", "negated", "rounded", "half_up", "half_down", "floor_100", "ceiling_100",
     "one_route", "one_town", "route_filtered", "lit_number", "lit_text", "lit_true", "lit_false",
@@ -68,6 +72,7 @@ BY_ROUTE: dict[str, list[object]] = {
     "passengers": [160, None, 450, 50, 25],
     "kept": [160, None, 450, 50, 25],  # not re-evaluated as 685
     "shared": [160 / 685, None, 450 / 685, 50 / 685, 25 / 685],
+    "let_in_loop": [160 * 3, None, 450 * 5, 50 * 3, 25 * 1],  # passengers x sailings
     # Night Owl: null > 200 is null, so the else branch.
     "busy_word": ["quiet", "quiet", "busy", "quiet", "quiet"],
     "busy_only": [None, None, 450, None, None],  # no else: null
@@ -106,6 +111,7 @@ OVERALL: dict[str, object] = {
     "passengers": 685,
     "kept": 685,
     "shared": 1,
+    "let_in_loop": 685 * 12,
     "busy_word": "busy",
     "busy_only": 685,
     "per_trip": 685 / 12,
