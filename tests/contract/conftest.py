@@ -3,12 +3,15 @@
 from __future__ import annotations
 
 from collections.abc import Iterator
+from pathlib import Path
 from types import ModuleType
 
 import pytest
 
 from contract.bench import Bench, Outcome
 from contract.tables import Grid
+
+HERE = Path(__file__).parent
 
 
 @pytest.fixture(scope="session")
@@ -17,7 +20,7 @@ def bench(request: pytest.FixtureRequest, tmp_path_factory: pytest.TempPathFacto
     modules: dict[str, ModuleType] = {}
     for item in request.session.items:
         module = getattr(item, "module", None)
-        if module is not None and hasattr(module, "COMMANDS"):
+        if module is not None and Path(module.__file__ or "").parent == HERE:
             modules.setdefault(module.__name__, module)
     shared = Bench(tmp_path_factory.mktemp("harbour"), list(modules.values()))
     yield shared
