@@ -24,6 +24,7 @@ measure riders = sum(boardings.riders)
 measure boardings_n = count(boardings)
 measure mean_riders = mean(boardings.riders)
 measure line_share = riders / (riders given clear stops)
+measure mean_ratio = mean_riders / (mean_riders given clear stops)
 measure biggest_stop = max(sum(boardings.riders) for each stops)
 measure per_stop = mean(riders for each stops)
 measure picked = restricted(stops.name)
@@ -79,13 +80,14 @@ def test_the_plan_prints_as_an_indented_tree_with_shared_nodes_once(tram: Differ
 
 
 def test_explain_names_each_measure_and_how_its_parts_became_sql(tram: Differential) -> None:
-    query = tram.query(["riders", "line_share", "ytd"], ["lines.name", "stops.name"])
+    query = tram.query(["riders", "line_share", "mean_ratio", "ytd"], ["lines.name", "stops.name"])
     compiled = compile_query(tram.bound, query)
     text = compiled.explain()
     assert "measure line_share = riders / (riders given clear stops)" in text
     assert "fused with" in text
     assert "correlated predicate" in text
-    assert "a coarser grain than the grid" in text  # clear stops became a join-back
+    assert "window: the sum of the grid's own aggregate" in text  # clear stops on a sum
+    assert "a coarser grain than the grid" in text  # ... and on a mean: a join-back
     assert "plan of this measure alone:" in text
     assert "tables read by the statement: " in text and "plan of the query:" in text
 

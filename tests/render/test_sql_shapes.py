@@ -18,6 +18,8 @@ measure riders = sum(boardings.riders)
 measure boardings_n = count(boardings)
 measure faults = sum(inspections.faults)
 measure line_share = riders / (riders given clear stops)
+measure mean_ratio = mean(boardings.riders) / (mean(boardings.riders) given clear stops)
+measure zone_a_share = riders / (riders given clear stops, stops.zone = "A")
 measure ytd = riders given to_date(days.day, year)
 measure last_year = riders given shift(days.day, -1, year)
 measure per_stop = mean(riders for each stops)
@@ -71,11 +73,29 @@ def test_plain_aggregate_is_grouped_by_the_grid_column_and_joined_null_safe(tram
     assert tree.args.get("order") is not None
 
 
-def test_clear_on_a_grid_column_is_a_join_back_at_the_coarser_grain(tram: Differential) -> None:
+def test_clear_on_a_grid_column_of_a_sum_is_a_window_over_the_grid(tram: Differential) -> None:
+    # The sum over the line is the sum of the grid's own per-stop sums over the grid rows of that
+    # line: one aggregate over boardings, then SUM(...) OVER (PARTITION BY the line).
     tree = parsed(tram, ["line_share"], ["lines.name", "stops.name"])
+    assert [group_width(s) for s in grouped_selects(tree, "boardings")] == [2]
+    window = tree.find(exp.Window)
+    assert window is not None and isinstance(window.this, exp.Sum)
+    assert len(window.args["partition_by"]) == 1
+
+
+def test_clear_on_a_grid_column_of_a_mean_is_a_join_back_at_the_coarser_grain(tram: Differential) -> None:
+    # A mean of means is not the mean: the coarse value is its own aggregate, grouped by the
+    # line only, and joined back to the grid on it.
+    tree = parsed(tram, ["mean_ratio"], ["lines.name", "stops.name"])
     widths = sorted(group_width(s) for s in grouped_selects(tree, "boardings"))
-    # One aggregate at the grid's grain (2 columns), one at the grain without stops (1 column).
     assert widths == [1, 2]
+    assert tree.find(exp.Window) is None
+
+
+def test_a_condition_after_clear_is_its_own_aggregate(tram: Differential) -> None:
+    # Not the grid's rows minus a grid column (a zone condition is added): no window.
+    tree = parsed(tram, ["zone_a_share"], ["lines.name", "stops.name"])
+    assert sorted(group_width(s) for s in grouped_selects(tree, "boardings")) == [1, 2]
 
 
 def test_division_is_true_division_with_a_null_for_a_zero_divisor(tram: Differential) -> None:

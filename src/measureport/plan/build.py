@@ -17,12 +17,21 @@ from __future__ import annotations
 from collections import defaultdict
 from collections.abc import Callable, Sequence
 from dataclasses import dataclass, field, replace
+from typing import Literal
 
 from measureport.model.datafiles import file_format
 from measureport.model.graph import reachable
 from measureport.model.schema import Model, Relationship
 from measureport.plan import dates
-from measureport.plan.context import CondFilter, EqFilter, Filter, ShiftFilter, TableCol, table_columns
+from measureport.plan.context import (
+    CondFilter,
+    Context,
+    EqFilter,
+    Filter,
+    ShiftFilter,
+    TableCol,
+    table_columns,
+)
 from measureport.plan.frames import AggRequest, Frame, IterRequest, RankRequest, Request, RowSet
 from measureport.plan.lower import Lowering
 from measureport.plan.names import Names
@@ -37,6 +46,7 @@ from measureport.plan.nodes import (
     Project,
     Scan,
     UnionAll,
+    WindowAggregate,
 )
 from measureport.plan.nodes import Filter as FilterNode
 from measureport.plan.scalar import (
@@ -163,8 +173,11 @@ class Builder:
                     groups.setdefault(agg.rows, []).append(agg)
                 else:
                     others.append(request)
+            windows = self._as_windows(frame, groups)
             for rows, requests in groups.items():
                 relation = self._join_aggregate(frame, relation, before, rows, requests)
+            for window in windows:
+                relation = window.apply(relation)
             for request in others:
                 if isinstance(request, IterRequest):
                     relation = self._join_iteration(frame, relation, before, request)
@@ -218,6 +231,62 @@ class Builder:
         outs = [(r.out, f"v{i}") for i, r in enumerate(requests)]
         frame_keys = [(f"k{i}", value) for i, (_, value) in enumerate(rr.keys)]
         return self._join_back(relation, node, frame_keys, outs, rr)
+
+    def _as_windows(self, frame: Frame, groups: dict[RowSet, list[AggRequest]]) -> list[Window]:
+        """Aggregates at a coarser grain than the grid that are computed from the grid's own
+        aggregate instead of a second scan: a sum, count, min or max over the rows of the grid
+        aggregate minus the equalities on some grid columns is that aggregate's sum (min, max)
+        over the grid rows that share the other grid columns.
+
+        It is exact when the coarse rows are the grid aggregate's rows without those equalities
+        and nothing else: then the coarse context keeps every report filter, so each group of the
+        grid aggregate is a row of the grid, and each row of the grid one group."""
+        if frame.kind != "grid" or not frame.grid_columns:
+            return []
+        found: list[Window] = []
+        for coarse_rows, requests in list(groups.items()):
+            if coarse_rows.where is not None or coarse_rows.distinct is not None:
+                continue
+            present = {(f.table, f.column) for f in coarse_rows.filters if isinstance(f, EqFilter)}
+            missing = [
+                EqFilter(t, c, Col(name))
+                for name, (t, c) in frame.grid_columns.items()
+                if (t, c) not in present
+            ]
+            if not missing:
+                continue
+            fine_rows = replace(coarse_rows, filters=Context.of((*coarse_rows.filters, *missing)).filters)
+            fine = groups.get(fine_rows)
+            if fine is None:
+                continue
+            keep = [r for r in requests if _window_function(r.value) is None]
+            for request in requests:
+                func = _window_function(request.value)
+                if func is None:
+                    continue
+                source = next((r for r in fine if r.value == request.value), None)
+                if source is None:
+                    source = AggRequest(
+                        self.names.fresh("agg"), fine_rows, request.value, request.description
+                    )
+                    fine.append(source)
+                partition = tuple(Col(name) for name, tc in frame.grid_columns.items() if tc in present)
+                found.append(Window(request.out, func, source.out, partition))
+                kept = ", ".join(f"{t}.{c}" for t, c in frame.grid_columns.values() if (t, c) in present)
+                self.strategies.append(
+                    Strategy(
+                        request,
+                        f"window: the {func} of the grid's own aggregate over the grid rows sharing"
+                        f" {kept or 'nothing (all rows)'}; the same rows, so no second scan",
+                        [request],
+                        self.lowering.askers,
+                    )
+                )
+            if keep:
+                groups[coarse_rows] = keep
+            else:
+                del groups[coarse_rows]
+        return found
 
     def _direct(self, request: IterRequest) -> AggRequest | None:
         """An iteration whose body reads only its current row (and values of enclosing frames)
@@ -608,6 +677,32 @@ class Builder:
         else:
             how = "one value for every row of the frame (no filter depends on the row)"
         return f"{what}; {how}"
+
+
+@dataclass
+class Window:
+    """A frame column computed as a window over another (see ``Builder._as_windows``)."""
+
+    out: str
+    func: Literal["sum", "min", "max"]
+    source: str
+    partition: tuple[Scalar, ...]
+
+    def apply(self, relation: PlanNode) -> PlanNode:
+        return WindowAggregate(
+            relation, self.out, self.func, Col(self.source), self.partition, label="window"
+        )
+
+
+def _window_function(value: Scalar) -> Literal["sum", "min", "max"] | None:
+    """How an aggregate of aggregates rolls up: counts and sums add, minima and maxima nest."""
+    if not isinstance(value, AggCall):
+        return None
+    if value.func in ("sum", "count", "count_rows"):
+        return "sum"
+    if value.func in ("min", "max"):
+        return value.func
+    return None
 
 
 @dataclass

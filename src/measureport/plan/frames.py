@@ -120,6 +120,8 @@ class Frame:
     body_columns: set[str] = field(default_factory=set)
     owned: set[str] = field(default_factory=set)
     label: str = ""
+    # For the grid frame: the model column behind each grid column.
+    grid_columns: dict[str, tuple[str, str]] = field(default_factory=dict)
 
     def ancestors(self) -> list[Frame]:
         """This frame and its parents, innermost first."""

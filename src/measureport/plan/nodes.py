@@ -184,6 +184,26 @@ class DenseRank(PlanNode):
 
 
 @dataclass(frozen=True)
+class WindowAggregate(PlanNode):
+    """The input with one more column ``name``: ``func`` (sum, min or max) of ``value`` over the
+    input rows that share the ``partition`` values (all rows when there is none)."""
+
+    input: PlanNode
+    name: str
+    func: Literal["sum", "min", "max"]
+    value: Scalar
+    partition: tuple[Scalar, ...]
+    label: str = field(default="", compare=False)
+
+    @property
+    def columns(self) -> tuple[str, ...]:
+        return (*self.input.columns, self.name)
+
+    def inputs(self) -> tuple[PlanNode, ...]:
+        return (self.input,)
+
+
+@dataclass(frozen=True)
 class UnionAll(PlanNode):
     """All rows of every input; the inputs have the same column names in the same order."""
 

@@ -94,6 +94,9 @@ def _describe(node: N.PlanNode) -> str:
         case N.DenseRank(name=name, value=value, ascending=ascending):
             order = "ascending" if ascending else "descending"
             return f"Dense rank{label}: {name} of {scalar_text(value)} {order}"
+        case N.WindowAggregate(name=name, func=func, value=value, partition=partition):
+            over = ", ".join(scalar_text(p) for p in partition) or "all rows"
+            return f"Window{label}: {name} = {func}({scalar_text(value)}) over {over}"
         case N.UnionAll():
             return f"Union all{label}"
         case N.Result(items=items):

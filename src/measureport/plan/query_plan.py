@@ -108,6 +108,7 @@ def _level_part(
     report = _report_context(lowering, grid, query.where)
     grid_node, grid_names = _grid(lowering, builder, grid, by, report)
     grid.key = tuple(grid_names)
+    grid.grid_columns = {n: (c.table, c.column) for c, n in zip(by, grid_names, strict=True)}
     cell = report.add(*(EqFilter(c.table, c.column, Col(n)) for c, n in zip(by, grid_names, strict=True)))
     values = [lowering.measure(m, cell, grid) for m in query.measures]
     for measure, value in zip(query.measures, values, strict=True):

@@ -216,6 +216,8 @@ class StatementRenderer:
             return self._select(piece, [(c, piece.columns[c]) for c in node.columns], distinct=True)
         if isinstance(node, N.DenseRank):
             return self._dense_rank(node)
+        if isinstance(node, N.WindowAggregate):
+            return self._window_aggregate(node)
         if isinstance(node, N.UnionAll):
             selects = [self.closed(part) for part in node.parts]
             union: exp.Select = selects[0]
@@ -232,6 +234,17 @@ class StatementRenderer:
         if isinstance(node, N.Scan | N.Filter | N.Project | N.Join):
             return self._close_piece(self._open_piece(node), node)
         raise NotImplementedError(f"no SQL for plan node {type(node).__name__}")
+
+    def _window_aggregate(self, node: N.WindowAggregate) -> exp.Select:
+        piece = self.piece(node.input)
+        scalars = self._scalars(piece)
+        kinds: dict[str, type[exp.Expression]] = {"sum": exp.Sum, "min": exp.Min, "max": exp.Max}
+        window = exp.Window(
+            this=kinds[node.func](this=scalars.render(node.value)),
+            partition_by=[scalars.render(p) for p in node.partition] or None,
+        )
+        items = [(c, piece.columns[c]) for c in node.input.columns] + [(node.name, window)]
+        return self._select(piece, items)
 
     def _dense_rank(self, node: N.DenseRank) -> exp.Select:
         piece = self.piece(node.input)
