@@ -274,7 +274,7 @@ class MeasureWriter:
         if kind == "each":
             return self.iteration(d, scope)
         if kind == "rank":
-            col = self.pick(self._text_columns(self.schema.dims))
+            col = self.pick([*self._text_columns(self.schema.dims), "f.t1"])
             order = self.pick(["", " ascending"])
             return f"rank({self.number(d, Scope(lets=[]))} over {col}{order})"
         if kind == "let":
@@ -284,7 +284,7 @@ class MeasureWriter:
             inner = Scope(scope.row_numbers, scope.row_texts, [*scope.lets, name], scope.in_iteration)
             return f"(let {name} = {value}\n {self.number(d, inner)})"
         if kind == "restricted":
-            column = self.pick(self._text_columns(self.schema.dims))
+            column = self.pick([*self._text_columns(self.schema.dims), "f.t1"])
             return f"(if restricted({column}) then {self.number(d, scope)} else {self.number(d, scope)})"
         # single of a number column of a dimension
         return f"coalesce(single(a.size), {self.number(d, scope)})"
@@ -315,7 +315,8 @@ class MeasureWriter:
         if kind == "in":
             return f"{self.number(depth, scope)} {self.pick(['', 'not '])}in (0, 1, 7)"
         if kind == "single":
-            return f'single(a.name) = "{self.pick(WORDS)}"'
+            column, value = self.pick([("a.name", self.pick(WORDS)), ("f.t1", "u")])
+            return f'single({column}) = "{value}"'
         column = self.pick(scope.row_texts)
         if kind == "like":
             return f'{column} {self.pick(["", "not "])}like "{self.pick(["o%", "%a_", "%"])}"'
@@ -341,7 +342,7 @@ class MeasureWriter:
             pairs.append("b.label, a.name")
         if self.schema.has_c:
             pairs.append("c.region, a.name")  # a reaches c: a is the closest table
-        cols = self.pick([*self._text_columns(self.schema.dims), *pairs])
+        cols = self.pick([*self._text_columns(self.schema.dims), "f.t1", "f.t1, a.name", *pairs])
         row_numbers = ["a.size"] if "a.size" in cols else []
         row_texts = [c.strip() for c in cols.split(",") if c.strip() != "a.size"]
         inner = Scope(row_numbers + scope.row_numbers, row_texts + scope.row_texts, scope.lets, True)
