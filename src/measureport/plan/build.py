@@ -816,6 +816,3 @@ def _guard_empty(value: Scalar) -> Scalar:
 
 def _agg_label(rows: RowSet) -> str:
     return f"aggregate of {rows.table}"
-
-
-__all__ = ["And", "Builder", "RowsRelation"]

@@ -167,11 +167,6 @@ def frame_columns_of(filters: Iterable[Filter]) -> set[str]:
     return found
 
 
-def is_static(f: Filter) -> bool:
-    """Whether a filter reads no frame column (the same for every frame row)."""
-    return not f.frame_columns()
-
-
 __all__ = [
     "Col",
     "CondFilter",
@@ -181,6 +176,5 @@ __all__ = [
     "ShiftFilter",
     "TableCol",
     "frame_columns_of",
-    "is_static",
     "table_columns",
 ]

@@ -238,9 +238,10 @@ class Lowering:
         if scope is None or scope.id in st.ctx.bound:
             return st.ctx
         ctx = st.ctx
-        for f in self._binding_filters(scope):
+        binding = self._binding_filters(scope)
+        for f in binding:
             ctx = ctx.without_columns(f.table, f.columns)
-        return ctx.add(*self._binding_filters(scope)).mark_bound(scope.id)
+        return ctx.add(*binding).mark_bound(scope.id)
 
     def _binding_filters(self, scope: Frame) -> list[Filter]:
         if scope.kind == "table" and scope.table is not None:

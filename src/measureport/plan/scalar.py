@@ -19,7 +19,6 @@ ArithOp = Literal["+", "-", "*", "/"]
 CompareOp = Literal["=", "!=", "<", "<=", ">", ">="]
 AggFunc = Literal["sum", "mean", "min", "max", "count", "count_distinct", "count_rows"]
 DatePart = Literal["year", "month", "day"]
-SqlType = Literal["double", "bigint", "date", "text", "boolean"]
 
 
 class Scalar:
@@ -186,15 +185,6 @@ class Func(Scalar):
 
 
 @dataclass(frozen=True)
-class Cast(Scalar):
-    operand: Scalar
-    to: SqlType
-
-    def children(self) -> tuple[Scalar, ...]:
-        return (self.operand,)
-
-
-@dataclass(frozen=True)
 class DatePartOf(Scalar):
     """The year, month or day-of-month number of a date."""
 
@@ -300,11 +290,6 @@ def conjunction(items: Sequence[Scalar]) -> Scalar | None:
     if len(items) == 1:
         return items[0]
     return And(tuple(items))
-
-
-def rename_columns(expr: Scalar, mapping: dict[str, str]) -> Scalar:
-    """The expression with each column ``a`` read as ``mapping[a]`` (others unchanged)."""
-    return substitute(expr, {old: Col(new) for old, new in mapping.items()})
 
 
 def substitute(expr: Scalar, mapping: dict[str, Scalar]) -> Scalar:

@@ -151,9 +151,6 @@ class ScalarRenderer:
             return exp.Least(this=args[0], expressions=args[1:], ignore_nulls=True)
         return exp.Greatest(this=args[0], expressions=args[1:], ignore_nulls=True)
 
-    def _Cast(self, node: S.Cast) -> exp.Expression:
-        return exp.cast(self.render(node.operand), exp.DataType.build(node.to.upper()))
-
     def _DatePartOf(self, node: S.DatePartOf) -> exp.Expression:
         kinds: dict[str, type[exp.Expression]] = {"year": exp.Year, "month": exp.Month, "day": exp.Day}
         return kinds[node.part](this=self.render(node.operand))
