@@ -7,10 +7,12 @@ import click
 from measureport import __version__
 from measureport.cli.check import check
 from measureport.cli.demo import demo
+from measureport.cli.dialects import dialects
 from measureport.cli.diff import diff
 from measureport.cli.failures import ReportingGroup
 from measureport.cli.run import run
 from measureport.cli.sql import explain, sql
+from measureport.cli.verify import verify
 from measureport.cli.views import views
 
 
@@ -27,4 +29,6 @@ main.add_command(sql)
 main.add_command(explain)
 main.add_command(diff)
 main.add_command(views)
+main.add_command(verify)
+main.add_command(dialects)
 main.add_command(demo)
