@@ -1,162 +1,169 @@
-"""Generated SQL against hand-written SQL of the same answer, side by side in one process.
+"""``python -m bench``: measureport's benchmark, from one command.
 
-    python -m bench                    # the demo at 5 million rides (generated once into .cache/)
-    python -m bench --rides 200000 --repeat 3 --out bench/results.md
+    python -m bench                                  # demo, tpch, reference and compile suites
+    python -m bench --suite demo --rides 5M,10M      # the demo at 5 and at 10 million rides
+    python -m bench --suite tpch,spark --scale 1     # TPC-H at SF1 on DuckDB, then on Spark
+    python -m bench --suite demo --rides 200k --repeat 3 --out /tmp/results.md
 
-For each query: both statements run once and are checked equal (cell by cell); then they run
-``--repeat`` times each, alternating, and the medians are compared. Also reported: the compile
-time of every demo measure over five groupings, and how often each statement reads the rides
-table (from the plan).
+Suites: ``demo`` (generated against hand-written SQL on the bike-share demo), ``tpch`` (generated
+against the TPC-H specification's SQL), ``spark`` (the TPC-H views on Spark local[2]; opt-in, it
+is slow), ``reference`` (the reference evaluator against SQL at small scale), ``compile``
+(compile time and memory, 1,000 generated measures). Progress goes to stderr; the results, as
+markdown tables with the machine they ran on, to stdout and to ``--out``. Targets are reported,
+not asserted; the exit status is 1 only when answers disagree or a query fails.
 """
 
 from __future__ import annotations
 
 import argparse
-import platform
-import statistics
 import sys
 import time
+from collections.abc import Callable, Sequence
+from functools import partial
 from pathlib import Path
-from typing import Any
 
-from bench.queries import QUERIES, BenchQuery
-from measureport.compare import compare_results, comparison_text
-from measureport.compile import compile_query
-from measureport.demo.writer import write_demo
-from measureport.engines.duckdb import DuckDBEngine
-from measureport.engines.values import python_value
-from measureport.query import Query, ResultTable
-from measureport.workspace import Workspace
+from bench.compile_suite import run_compile_suite
+from bench.demo_suite import run_demo_suite
+from bench.load import CpuWatch
+from bench.machine import describe_machine
+from bench.memory import lifetime_peak, mib
+from bench.reference_suite import run_reference_suite
+from bench.results_file import SUITE_ORDER, merged_results, wrap_section
+from bench.sections import Section
+from bench.spark_suite import run_spark_suite
+from bench.tpch_suite import run_tpch_suite
 
 ROOT = Path(__file__).resolve().parents[1]
-CACHE = ROOT / ".cache" / "bench"
-
-GROUPINGS = (
-    (),
-    ("districts.name",),
-    ("calendar.month",),
-    ("bikes.model", "plans.name"),
-    ("districts.name", "stations.name", "calendar.year"),
-)
+DEFAULT_OUT = ROOT / "bench" / "RESULTS.md"
+DEFAULT_SUITES = ("demo", "tpch", "reference", "compile")
+SUFFIXES = {"k": 1_000, "m": 1_000_000}
 
 
-def demo_at(rides: int) -> Path:
-    """The demo model with ``rides`` rides as Parquet, generated once into the cache."""
-    folder = CACHE / f"rides-{rides}"
-    model = folder / "model.yaml"
-    if not model.exists():
-        print(f"generating the demo with {rides:,} rides into {folder} ...", file=sys.stderr)
-        write_demo(folder, rides=rides, fmt="parquet", force=True)
-    return model
+def count(text: str) -> int:
+    """A count written plainly or with a suffix: ``20000``, ``20k``, ``5M``, ``10_000_000``."""
+    cleaned = text.strip().lower().replace("_", "").replace(",", "")
+    factor = SUFFIXES.get(cleaned[-1:], 1)
+    digits = cleaned[:-1] if factor != 1 else cleaned
+    try:
+        value = float(digits) * factor
+    except ValueError:
+        raise argparse.ArgumentTypeError(f"not a count: {text!r} (write 5000000 or 5M)") from None
+    if value < 1 or value != int(value):
+        raise argparse.ArgumentTypeError(f"not a whole count above 0: {text!r}")
+    return int(value)
 
 
-def hand_result(engine: DuckDBEngine, query: Query, sql: str) -> ResultTable:
-    rows = engine.connection.execute(sql).fetchall()
-    n = len(query.by) + len(query.measures)
-    return ResultTable(
-        by=tuple(str(c) for c in query.by),
-        measures=tuple(query.measures),
-        rows=[tuple(python_value(v) for v in row[:n]) for row in rows],
-        levels=[int(row[n]) for row in rows],
-    )
+def counts(text: str) -> list[int]:
+    """Comma-separated counts: ``5M,10M``."""
+    return [count(part) for part in text.replace(";", " ").split() for part in part.split(",") if part]
 
 
-def timed(engine: DuckDBEngine, sql: str) -> float:
-    start = time.perf_counter()
-    engine.connection.execute(sql).fetchall()
-    return time.perf_counter() - start
-
-
-def measure_query(
-    ws: Workspace, engine: DuckDBEngine, bq: BenchQuery, repeat: int
-) -> dict[str, Any]:
-    """Check one query's two statements equal, then time them alternately."""
-    query = ws.query(list(bq.measures), list(bq.by), list(bq.where), bq.totals)
-    compiled = compile_query(ws.bound, query, "duckdb")
-    generated_sql = compiled.run_sql()
-    generated = engine.run_compiled(compiled)
-    written = hand_result(engine, query, bq.hand_sql)
-    comparison = compare_results(written, generated, tolerance=1e-9)
-    if not comparison.equal:
-        raise SystemExit(
-            f"{bq.name}: the generated SQL and the hand-written SQL disagree\n"
-            + comparison_text(comparison, "hand-written", "generated")
+def suites(text: str) -> list[str]:
+    """Comma-separated suite names, each one of :data:`SUITE_ORDER`."""
+    names = [name.strip() for name in text.split(",") if name.strip()]
+    unknown = [name for name in names if name not in SUITE_ORDER]
+    if unknown or not names:
+        raise argparse.ArgumentTypeError(
+            f"unknown suite {', '.join(unknown) or '(none)'}; the suites are {', '.join(SUITE_ORDER)}"
         )
-    gen_times: list[float] = []
-    hand_times: list[float] = []
-    for _ in range(repeat):
-        gen_times.append(timed(engine, generated_sql))
-        hand_times.append(timed(engine, bq.hand_sql))
-    gen, hand = statistics.median(gen_times), statistics.median(hand_times)
-    return {
-        "name": bq.name,
-        "strategy": bq.strategy,
-        "rows": len(generated.rows),
-        "generated": gen,
-        "hand": hand,
-        "ratio": gen / hand if hand > 0 else float("inf"),
-        "rides_scans": compiled.scans.get("rides", 0),
-    }
+    return names
 
 
-def compile_time(ws: Workspace) -> tuple[float, int]:
-    """Seconds to compile every measure of the model over five groupings, and how many queries."""
-    start = time.perf_counter()
-    count = 0
-    for by in GROUPINGS:
-        compile_query(ws.bound, ws.query(list(ws.measure_names), list(by)), "duckdb").run_sql()
-        count += 1
-    return time.perf_counter() - start, count
+def parser() -> argparse.ArgumentParser:
+    """The command line of ``python -m bench``."""
+    p = argparse.ArgumentParser(prog="python -m bench", description=(__doc__ or "").splitlines()[0])
+    p.add_argument("--suite", type=suites, default=list(DEFAULT_SUITES),
+                   help=f"suites to run, comma-separated (default {','.join(DEFAULT_SUITES)}; "
+                   "spark is opt-in)")
+    p.add_argument("--rides", type=counts, default=[10_000_000],
+                   help="rides of the demo suite, comma-separated for several runs: 5M,10M (default 10M)")
+    p.add_argument("--scale", type=float, default=1.0, help="TPC-H scale factor of the tpch and spark suites")
+    p.add_argument("--repeat", type=count, default=5, help="timed runs of each statement (default 5)")
+    p.add_argument("--out", type=Path, default=DEFAULT_OUT, help=f"results file (default {DEFAULT_OUT.name})")
+    p.add_argument("--only", action="append", default=[], help="run only these queries (by name; repeatable)")
+    p.add_argument("--spark-scale", type=float, help="scale factor of the spark suite (default --scale)")
+    p.add_argument("--spark-repeat", type=count, default=3, help="timed runs on Spark (default 3)")
+    p.add_argument("--spark-memory", default="12g", help="memory of the Spark driver JVM (default 12g)")
+    p.add_argument("--reference-rides", type=count, default=20_000,
+                   help="rides of the reference suite (default 20k)")
+    p.add_argument("--measures", type=count, default=1_000, help="generated measures of the compile suite")
+    p.add_argument("--retries", type=int, default=1,
+                   help="runs of a suite again while other processes kept the machine busy (default 1)")
+    return p
 
 
-def report(results: list[dict[str, Any]], compile_seconds: float, rides: int, repeat: int) -> str:
-    ratios = [r["ratio"] for r in results]
-    lines = [
-        f"Demo at {rides:,} rides, DuckDB, median of {repeat} alternating runs each; "
-        f"machine: {platform.machine()}, {platform.python_implementation()} {platform.python_version()}, "
-        f"{_cores()} cores.",
-        "",
-        "| query | strategy | rows | generated s | hand-written s | ratio | rides scans |",
-        "|---|---|---:|---:|---:|---:|---:|",
-    ]
-    for r in results:
-        lines.append(
-            f"| {r['name']} | {r['strategy']} | {r['rows']} | {r['generated']:.4f} | {r['hand']:.4f} "
-            f"| {r['ratio']:.2f} | {r['rides_scans']} |"
-        )
-    lines += [
-        "",
-        f"Median ratio {statistics.median(ratios):.2f}, worst {max(ratios):.2f} "
-        f"({max(results, key=lambda r: r['ratio'])['name']}). "
-        f"Compiling all demo measures over {len(GROUPINGS)} groupings: {compile_seconds:.3f} s.",
-    ]
-    return "\n".join(lines)
+def planned_runs(args: argparse.Namespace) -> list[tuple[str, Callable[[], Section]]]:
+    """The suite runs the options ask for, in order, each a name and a function that runs it."""
+    only: Sequence[str] = args.only
+    runs: list[tuple[str, Callable[[], Section]]] = []
+    for suite in args.suite:
+        if suite == "demo":
+            for rides in args.rides:
+                runs.append((f"demo at {rides:,} rides", partial(run_demo_suite, rides, args.repeat, only)))
+        elif suite == "tpch":
+            runs.append((f"tpch at SF{args.scale:g}", lambda: run_tpch_suite(args.scale, args.repeat, only)))
+        elif suite == "spark":
+            scale = args.spark_scale or args.scale
+            runs.append((f"spark at SF{scale:g}",
+                         partial(run_spark_suite, scale, args.spark_repeat, args.spark_memory, only)))
+        elif suite == "reference":
+            runs.append((f"reference at {args.reference_rides:,} rides",
+                         lambda: run_reference_suite(args.reference_rides, args.repeat, only)))
+        elif suite == "compile":
+            runs.append(
+                ("compile", partial(run_compile_suite, args.measures, args.repeat, args.reference_rides))
+            )
+    return runs
 
 
-def _cores() -> int:
-    import os
-
-    return os.cpu_count() or 1
+def run_watched(name: str, run: Callable[[], Section], retries: int) -> Section:
+    """Run a suite while watching the machine's load; while other processes kept it busy, run it
+    again (up to ``retries`` times) and keep the quietest run."""
+    best: Section | None = None
+    for attempt in range(retries + 1):
+        print(f"{name}{f' (again, run {attempt + 1})' if attempt else ''} ...", file=sys.stderr, flush=True)
+        watch = CpuWatch()
+        watch.start()
+        section = run()
+        section.load = watch.stop()
+        print(f"  {section.load.text()}", file=sys.stderr, flush=True)
+        for problem in section.problems:
+            print(f"  problem: {problem}", file=sys.stderr, flush=True)
+        if best is None or section.load.other_cores < (best.load.other_cores if best.load else 0.0):
+            best = section
+        if not section.load.busy:
+            break
+    assert best is not None
+    best.runs = attempt + 1
+    return best
 
 
 def main(argv: list[str] | None = None) -> int:
-    parser = argparse.ArgumentParser(prog="python -m bench", description=__doc__.splitlines()[0])
-    parser.add_argument("--rides", type=int, default=5_000_000, help="rides in the demo data")
-    parser.add_argument("--repeat", type=int, default=5, help="timed runs of each statement")
-    parser.add_argument("--only", action="append", default=[], help="run only these queries")
-    parser.add_argument("--out", type=Path, help="also write the table (markdown) to this file")
-    args = parser.parse_args(argv)
-
-    ws = Workspace.open(demo_at(args.rides))
-    engine = DuckDBEngine(ws.bound)
-    chosen = [q for q in QUERIES if not args.only or q.name in args.only]
-    results = []
-    for bq in chosen:
-        print(f"  {bq.name} ...", file=sys.stderr, flush=True)
-        results.append(measure_query(ws, engine, bq, args.repeat))
-    seconds, _ = compile_time(ws)
-    text = report(results, seconds, args.rides, args.repeat)
-    print(text)
-    if args.out:
-        args.out.write_text(text + "\n", encoding="utf-8")
-    return 0
+    args = parser().parse_args(argv)
+    machine = describe_machine()
+    when = time.strftime("%Y-%m-%d %H:%M %Z")
+    sections = {}
+    problems = 0
+    for name, run in planned_runs(args):
+        section = run_watched(name, run, args.retries)
+        problems += len(section.problems)
+        sections[section.key] = "\n".join(section.markdown(machine.one_line(), when))
+        sections[section.key] += f"\n\nProcess peak resident set so far: {mib(lifetime_peak())} MiB.\n"
+    head = [
+        "# Benchmark results",
+        "",
+        "Written by `python -m bench` (see bench/README.md for how to run it). Each section says when it "
+        "ran and how busy the machine was meanwhile; a later run of a suite replaces its section.",
+        "",
+        "## Machine",
+        "",
+        *machine.markdown(),
+        "",
+    ]
+    earlier = args.out.read_text(encoding="utf-8") if args.out.is_file() else ""
+    wrapped = {key: wrap_section(key, [text]) for key, text in sections.items()}
+    print("\n".join(text for text in sections.values()))
+    args.out.parent.mkdir(parents=True, exist_ok=True)
+    args.out.write_text(merged_results(head, earlier, wrapped), encoding="utf-8")
+    print(f"results written to {args.out}", file=sys.stderr)
+    return 1 if problems else 0
