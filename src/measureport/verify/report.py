@@ -15,6 +15,10 @@ from measureport.verify.targets import Target
 from measureport.verify.text import matrix_table, summary_text
 
 
+def _sentence(text: str) -> str:
+    return text if text.endswith((".", "!", "?")) else text + "."
+
+
 def _summary(result: VerifyResult, model: str) -> Section:
     verdict = "some cells do not agree" if result.failed else "every compared cell agrees"
     facts = [
@@ -27,7 +31,7 @@ def _summary(result: VerifyResult, model: str) -> Section:
     ]
     facts += [("not run", f"{u.name}: {u.reason}") for u in result.unavailable]
     blocks: list[Block] = [Paragraph(f"Result: {verdict}."), Facts(tuple(facts))]
-    blocks += [Paragraph(note[0].upper() + note[1:] + ".") for note in result.notes]
+    blocks += [Paragraph(_sentence(note[0].upper() + note[1:])) for note in result.notes]
     return Section("Summary", tuple(blocks), "bad" if result.failed else "good")
 
 
@@ -44,7 +48,7 @@ def _cell_section(check: Check, target: Target, cell: Cell, baseline: str) -> li
     tone: Tone = "bad" if cell.failed else "plain"
     blocks: list[Block] = [Facts((("check", check.name), ("engine", target.name), ("cell", cell.text())))]
     if cell.reason:
-        blocks.append(Paragraph(f"{cell.status.capitalize()}: {cell.reason}."))
+        blocks.append(Paragraph(_sentence(f"{cell.status.capitalize()}: {cell.reason}")))
     if cell.unsupported_measures:
         blocks.append(DataTable(("measure", "why it cannot be written"), cell.unsupported_measures))
     if cell.sql:

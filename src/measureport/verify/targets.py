@@ -38,7 +38,7 @@ class Target:
             return "the reference evaluator (the language's meaning, in plain Python)"
         if self.kind == "roundtrip":
             assert self.profile is not None
-            return f"{self.profile.title} SQL, parsed back with sqlglot and run on DuckDB"
+            return f"SQL written for {self.profile.title}, parsed back with sqlglot and run on DuckDB"
         if self.profile is None:
             return f"the engine {self.name}"
         return f"{self.profile.title}, running SQL written in sqlglot's {self.profile.sqlglot} dialect"
