@@ -47,7 +47,7 @@ class Engine(Protocol):
 
 EngineFactory = Callable[["Workspace"], Engine]
 
-DEFAULT_ENGINE = "reference"
+DEFAULT_ENGINE = "duckdb"
 
 UrlEngineFactory = Callable[["Workspace", str], Engine]
 
