@@ -132,6 +132,10 @@ class Builder:
         self.names = names
         self._stages: dict[int, int] = {}
         self._empty_exists: dict[str, Scalar] = {}
+        self._stage_groups: dict[tuple[int, int], StageGroups] = {}
+        self._aggregates: dict[tuple[int, RowSet, tuple[int, ...]], BuiltAggregate] = {}
+        self._orphan_counts: dict[Relationship, Scalar] = {}
+        self._counted: set[str] = set()
         self.strategies: list[Strategy] = []
 
     # --- stages ---------------------------------------------------------------------------
@@ -155,17 +159,20 @@ class Builder:
 
     # --- frames ---------------------------------------------------------------------------------
 
-    def build_frame(self, frame: Frame, base: PlanNode) -> PlanNode:
-        """``base`` with a column for every request of ``frame``."""
+    def _by_stage(self, frame: Frame) -> dict[int, list[Request]]:
         by_stage: dict[int, list[Request]] = defaultdict(list)
         for request in frame.requests:
             by_stage[self.stage_of(frame, request)].append(request)
-        relation = base
-        for stage in sorted(by_stage):
-            before = relation
+        return by_stage
+
+    def _groups_of(self, frame: Frame, stage: int, requests: list[Request]) -> StageGroups:
+        """The requests of one stage: aggregates grouped by row set (fused), windows, the rest."""
+        key = (frame.id, stage)
+        found = self._stage_groups.get(key)
+        if found is None:
             groups: dict[RowSet, list[AggRequest]] = {}
             others: list[Request] = []
-            for request in by_stage[stage]:
+            for request in requests:
                 direct = self._direct(request) if isinstance(request, IterRequest) else None
                 if isinstance(request, AggRequest) or direct is not None:
                     agg = direct if direct is not None else request
@@ -174,11 +181,33 @@ class Builder:
                 else:
                     others.append(request)
             windows = self._as_windows(frame, groups)
-            for rows, requests in groups.items():
+            found = StageGroups(groups, windows, others)
+            self._stage_groups[key] = found
+        return found
+
+    def build_grid(self, frame: Frame, grid: Callable[[], PlanNode]) -> PlanNode:
+        """The grid frame: its aggregates over all the rows of a table are formed first, so that
+        the grid (built by ``grid``) can tell from them whether an empty member exists."""
+        by_stage = self._by_stage(frame)
+        self._counted = _dimensions_tested(self.model, frame)
+        if 1 in by_stage:
+            for rows, requests in self._groups_of(frame, 1, by_stage[1]).aggregates.items():
+                if _covers_every_row(rows):
+                    self._aggregate(frame, None, rows, requests)
+        return self.build_frame(frame, grid())
+
+    def build_frame(self, frame: Frame, base: PlanNode) -> PlanNode:
+        """``base`` with a column for every request of ``frame``."""
+        by_stage = self._by_stage(frame)
+        relation = base
+        for stage in sorted(by_stage):
+            before = relation
+            found = self._groups_of(frame, stage, by_stage[stage])
+            for rows, requests in found.aggregates.items():
                 relation = self._join_aggregate(frame, relation, before, rows, requests)
-            for window in windows:
+            for window in found.windows:
                 relation = window.apply(relation)
-            for request in others:
+            for request in found.others:
                 if isinstance(request, IterRequest):
                     relation = self._join_iteration(frame, relation, before, request)
                 elif isinstance(request, RankRequest):
@@ -214,23 +243,50 @@ class Builder:
     def _join_aggregate(
         self, frame: Frame, relation: PlanNode, before: PlanNode, rows: RowSet, requests: list[AggRequest]
     ) -> PlanNode:
-        carried = sorted(set().union(*(columns_used(r.value) for r in requests)))
-        wanted = set().union(*(table_columns(r.value) for r in requests))
-        rr = self.rows_relation(rows, before, carried, wanted)
-        keys = [(f"k{i}", Col(local)) for i, (local, _) in enumerate(rr.keys)]
-        values = []
-        for i, request in enumerate(requests):
-            value = rr.local(request.value)
-            if not keys:
-                value = _guard_empty(value)
-            values.append((f"v{i}", value))
-        node = Aggregate(rr.node, tuple(keys), tuple(values), label=_agg_label(rows))
+        built = self._aggregate(frame, before, rows, requests)
+        rr = built.rows
         words = self._describe_rows(frame, rows, rr)
         for request in requests:
             self.strategies.append(Strategy(request, words, list(requests), self.lowering.askers))
         outs = [(r.out, f"v{i}") for i, r in enumerate(requests)]
         frame_keys = [(f"k{i}", value) for i, (_, value) in enumerate(rr.keys)]
-        return self._join_back(relation, node, frame_keys, outs, rr)
+        return self._join_back(relation, built.node, frame_keys, outs, rr)
+
+    def _aggregate(
+        self, frame: Frame, before: PlanNode | None, rows: RowSet, requests: list[AggRequest]
+    ) -> BuiltAggregate:
+        """The one aggregate of a row set's requests. An aggregate of every row of a table that
+        joins a dimension whose empty member the query asks about also counts the rows whose
+        key finds no row there, for ``empty_member_exists``."""
+        key = (frame.id, rows, tuple(id(r) for r in requests))
+        found = self._aggregates.get(key)
+        if found is not None:
+            return found
+        carried = sorted(set().union(*(columns_used(r.value) for r in requests)))
+        wanted = set().union(*(table_columns(r.value) for r in requests))
+        counted = []
+        if frame.kind == "grid" and _covers_every_row(rows):
+            counted = [r for r in self.model.relationships_from(rows.table) if r.one_table in self._counted]
+            wanted |= {TableCol(r.one_table, r.one_column) for r in counted}
+        rr = self.rows_relation(rows, before, carried, wanted)
+        keys = [(f"k{i}", Col(local)) for i, (local, _) in enumerate(rr.keys)]
+        values: list[tuple[str, Scalar]] = []
+        for i, request in enumerate(requests):
+            value = rr.local(request.value)
+            if not keys:
+                value = _guard_empty(value)
+            values.append((f"v{i}", value))
+        for i, rel in enumerate(counted):
+            key_col = Col(rr.columns[TableCol(rel.one_table, rel.one_column)])
+            values.append((f"o{i}", Arith("-", AggCall("count_rows"), AggCall("count", key_col))))
+        node = Aggregate(rr.node, tuple(keys), tuple(values), label=_agg_label(rows))
+        for i, rel in enumerate(counted):
+            if rel not in self._orphan_counts:
+                unmatched = FilterNode(node, Compare(">", Col(f"o{i}"), Const(0, "number")))
+                self._orphan_counts[rel] = Exists(unmatched)
+        found = BuiltAggregate(node, rr)
+        self._aggregates[key] = found
+        return found
 
     def _as_windows(self, frame: Frame, groups: dict[RowSet, list[AggRequest]]) -> list[Window]:
         """Aggregates at a coarser grain than the grid that are computed from the grid's own
@@ -629,6 +685,13 @@ class Builder:
             return found
         tests: list[Scalar] = []
         for rel in self.model.relationships_to(table):
+            counted = self._orphan_counts.get(rel)
+            if counted is not None:
+                # Read from an aggregate of every row of the many side that the query needs anyway.
+                tests.append(counted)
+                if any(r.one_table == rel.many_table for r in self.model.relationships):
+                    tests.append(self.empty_member_exists(rel.many_table))
+                continue
             many = self.names.of_column(rel.many_table, rel.many_column)
             one = self.names.of_column(rel.one_table, rel.one_column)
             joined = Join(
@@ -677,6 +740,43 @@ class Builder:
         else:
             how = "one value for every row of the frame (no filter depends on the row)"
         return f"{what}; {how}"
+
+
+@dataclass
+class StageGroups:
+    """The requests of one stage of a frame, as they are built."""
+
+    aggregates: dict[RowSet, list[AggRequest]]
+    windows: list[Window]
+    others: list[Request]
+
+
+@dataclass
+class BuiltAggregate:
+    node: PlanNode
+    rows: RowsRelation
+
+
+def _covers_every_row(rows: RowSet) -> bool:
+    """Whether a row set keeps every row of its table: no filter but grid cells (whose groups
+    then partition the rows)."""
+    plain = all(isinstance(f, EqFilter) and f.binding is None for f in rows.filters)
+    return plain and rows.where is None and rows.distinct is None and not rows.with_empty
+
+
+def _dimensions_tested(model: Model, grid: Frame) -> set[str]:
+    """The dimensions whose empty member's existence a grid may ask about: the grid's tables and,
+    below them, every dimension pointing at one of those (its empty member points on)."""
+    found: set[str] = set()
+    pending = [t for t, _ in grid.grid_columns.values()]
+    dims = {r.one_table for r in model.relationships}
+    while pending:
+        table = pending.pop()
+        if table in found or table not in dims:
+            continue
+        found.add(table)
+        pending.extend(r.many_table for r in model.relationships_to(table))
+    return found
 
 
 @dataclass

@@ -106,7 +106,7 @@ def _level_part(
     by = query.by[:level]
     grid = lowering.new_frame("grid", None, label=f"grid by {', '.join(map(str, by)) or 'nothing'}")
     report = _report_context(lowering, grid, query.where)
-    grid_node, grid_names = _grid(lowering, builder, grid, by, report)
+    grid_names = [lowering.own(grid, lowering.names.fresh(f"{c.table}_{c.column}")) for c in by]
     grid.key = tuple(grid_names)
     grid.grid_columns = {n: (c.table, c.column) for c, n in zip(by, grid_names, strict=True)}
     cell = report.add(*(EqFilter(c.table, c.column, Col(n)) for c, n in zip(by, grid_names, strict=True)))
@@ -114,7 +114,7 @@ def _level_part(
     for measure, value in zip(query.measures, values, strict=True):
         _attribute(grid, measure, value, lowering.askers)
     requests.extend(grid.requests)
-    final = builder.build_frame(grid, grid_node)
+    final = builder.build_grid(grid, lambda: _grid(lowering, builder, by, grid_names, report))
     items: list[tuple[str, Scalar]] = []
     for i, column in enumerate(query.by):
         if i < level:
@@ -186,23 +186,19 @@ def _report_context(lowering: Lowering, grid: Frame, where: tuple[ast.Expr, ...]
 
 
 def _grid(
-    lowering: Lowering, builder: Builder, grid: Frame, by: tuple[ast.ColumnRef, ...], report: Context
-) -> tuple[PlanNode, list[str]]:
+    lowering: Lowering, builder: Builder, by: tuple[ast.ColumnRef, ...], names: list[str], report: Context
+) -> PlanNode:
     """Per table, the distinct visible combinations of its grouping columns (the empty member
     included); across tables, every combination of those (LANGUAGE.md 3.6)."""
     groups: dict[str, list[int]] = {}
     for i, column in enumerate(by):
         groups.setdefault(column.table, []).append(i)
-    names: list[str] = [""] * len(by)
     node: PlanNode | None = None
     for table, positions in groups.items():
         rows = lowering.rowset(report, table, with_empty=True)
         wanted = {TableCol(by[i].table, by[i].column) for i in positions}
         rr = builder.rows_relation(rows, None, [], wanted)
-        items: list[tuple[str, Scalar]] = []
-        for i in positions:
-            names[i] = lowering.own(grid, lowering.names.fresh(f"{by[i].table}_{by[i].column}"))
-            items.append((names[i], Col(rr.columns[TableCol(by[i].table, by[i].column)])))
+        items = [(names[i], Col(rr.columns[TableCol(by[i].table, by[i].column)])) for i in positions]
         part = Distinct(Project(rr.node, tuple(items)), label=f"grid of {table}")
         node = part if node is None else Join(node, part, "cross")
-    return (node if node is not None else OneRow(label="one row")), names
+    return node if node is not None else OneRow(label="one row")
