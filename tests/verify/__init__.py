@@ -1,0 +1,1 @@
+"""Tests of `measureport verify`: checks, targets, cells, the runner, the report and the command."""
