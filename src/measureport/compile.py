@@ -17,6 +17,7 @@ from sqlglot import exp
 from measureport.plan.printing import format_plan
 from measureport.plan.query_plan import LEVEL_COLUMN, QueryPlan, plan_query
 from measureport.query import Query
+from measureport.render.dialect_forms import localise
 from measureport.render.dialects import dialect_profile
 from measureport.render.statement import RenderedStatement, render_statement
 from measureport.semantics.bound import BoundModel
@@ -107,5 +108,6 @@ def compile_query(bound: BoundModel, query: Query, dialect: str = "duckdb") -> C
     lowered exactly raises :class:`measureport.errors.MeasureportError` naming the measure."""
     profile = dialect_profile(dialect)
     planned = plan_query(bound, query)
-    rendered = render_statement(planned.executable, hidden_last=True)
+    neutral = render_statement(planned.executable, hidden_last=True)
+    rendered = replace(neutral, expression=localise(neutral.expression, profile))
     return CompiledQuery(query, profile.name, profile.sqlglot, bound, planned, rendered)

@@ -1,0 +1,264 @@
+"""Dialect forms: one rendered statement rewritten into the forms a dialect's engine runs exactly.
+
+The renderer builds one dialect-neutral sqlglot tree. sqlglot does not translate every node for
+every dialect (``DATE_FROM_PARTS`` is written where the engine has no such function, ``LAST_DAY``
+where it is missing), so :func:`localise` walks the tree bottom-up and replaces each node whose type
+is in :data:`TRANSFORMS` by the form the dialect's profile asks for. Each construct has a small table
+of *styles*, each style a builder made of sqlglot nodes; the profile's quirks pick the style:
+
+* ``native`` — sqlglot's own node, when sqlglot already writes the function the profile names;
+* ``named`` — a call of the function the profile names (``exp.Anonymous`` built from nodes);
+* ``iso_text`` — for engines whose dates are ISO text (``date_trunc_returns: text``);
+* ``day_arithmetic`` / ``month_arithmetic`` — built from other constructs where the dialect has
+  no function at all.
+"""
+
+from __future__ import annotations
+
+import functools
+from collections.abc import Callable
+
+from sqlglot import exp
+
+from measureport.dialects import DialectProfile
+from measureport.render.scalars import operand
+
+DatePart = str
+_PART_NODES: dict[type[exp.Expression], DatePart] = {exp.Year: "year", exp.Month: "month", exp.Day: "day"}
+_PART_FORMATS: dict[DatePart, str] = {"year": "%Y", "month": "%m", "day": "%d"}
+
+
+def _number(value: int) -> exp.Expression:
+    return exp.Literal.number(str(value)) if value >= 0 else exp.Neg(this=exp.Literal.number(str(-value)))
+
+
+def _int(node: exp.Expression) -> exp.Expression:
+    return exp.cast(node, exp.DataType.build("INT"))
+
+
+def _date(node: exp.Expression) -> exp.Expression:
+    return exp.cast(node, exp.DataType.build("DATE"))
+
+
+@functools.cache
+def _sqlglot_writes(dialect: str, node_type: type[exp.Expression], function: str) -> bool:
+    """True when sqlglot writes a ``node_type`` node in ``dialect`` as a call of ``function``."""
+    probes: dict[type[exp.Expression], exp.Expression] = {
+        exp.DateFromParts: exp.DateFromParts(
+            year=exp.column("y"), month=exp.column("m"), day=exp.column("d")
+        ),
+        exp.LastDay: exp.LastDay(this=exp.column("d")),
+    }
+    text = probes[node_type].sql(dialect=dialect)
+    return text.upper().startswith(function.upper() + "(")
+
+
+class DialectForms:
+    """The builders of one dialect: each takes operands already in the dialect's forms."""
+
+    def __init__(self, profile: DialectProfile) -> None:
+        self.profile = profile
+        self.text_dates = profile.quirks.date_trunc_returns == "text"
+
+    # --- style choice, read from the profile -------------------------------------------------
+
+    def make_date_style(self) -> str:
+        """``native``, ``named``, ``iso_text`` or ``day_arithmetic``."""
+        function = self.profile.quirks.make_date
+        if self.profile.quirks.has_function("make_date"):
+            return "native" if _sqlglot_writes(self.profile.sqlglot, exp.DateFromParts, function) else "named"
+        return "iso_text" if self.text_dates else "day_arithmetic"
+
+    def last_day_style(self) -> str:
+        """``native``, ``named`` or ``month_arithmetic``."""
+        function = self.profile.quirks.last_day
+        if self.profile.quirks.has_function("last_day"):
+            return "native" if _sqlglot_writes(self.profile.sqlglot, exp.LastDay, function) else "named"
+        return "month_arithmetic"
+
+    def date_part_style(self) -> str:
+        """``native`` or ``iso_text``."""
+        lacking = any(self.profile.lacks_function(part) for part in _PART_FORMATS)
+        return "iso_text" if self.text_dates and lacking else "native"
+
+    def int_div_style(self) -> str:
+        """``native`` (sqlglot's own integer division) or ``truncating_slash``: ``/`` of two
+        integers, where the engine truncates and lacks the function sqlglot writes."""
+        if self.profile.quirks.integer_division == "truncates" and self.profile.lacks_function("DIV"):
+            return "truncating_slash"
+        return "native"
+
+    # --- constructs --------------------------------------------------------------------------
+
+    def make_date(self, year: exp.Expression, month: exp.Expression, day: exp.Expression) -> exp.Expression:
+        """The date of three integer expressions."""
+        return _MAKE_DATE_STYLES[self.make_date_style()](self, year, month, day)
+
+    def last_day(self, date: exp.Expression) -> exp.Expression:
+        """The last day of ``date``'s month."""
+        return _LAST_DAY_STYLES[self.last_day_style()](self, date)
+
+    def date_part(self, part: DatePart, date: exp.Expression) -> exp.Expression:
+        """The year, month or day number of ``date``, an integer."""
+        return _DATE_PART_STYLES[self.date_part_style()](self, part, date)
+
+    def add_days(self, date: exp.Expression, days: exp.Expression) -> exp.Expression:
+        """``date`` moved by ``days`` whole days, as a date."""
+        return _date(exp.DateAdd(this=operand(date), expression=operand(days), unit=exp.var("DAY")))
+
+    def int_div(self, left: exp.Expression, right: exp.Expression) -> exp.Expression:
+        """Integer division of two non-negative integers."""
+        return _INT_DIV_STYLES[self.int_div_style()](self, left, right)
+
+
+# --- make_date styles ----------------------------------------------------------------------------
+
+
+def _make_date_native(forms: DialectForms, y: exp.Expression, m: exp.Expression, d: exp.Expression) -> exp.Expression:
+    return exp.DateFromParts(year=y, month=m, day=d)
+
+
+def _make_date_named(forms: DialectForms, y: exp.Expression, m: exp.Expression, d: exp.Expression) -> exp.Expression:
+    # Some engines give date parts as numeric (PostgreSQL's EXTRACT): the function wants integers.
+    return exp.Anonymous(this=forms.profile.quirks.make_date, expressions=[_int(y), _int(m), _int(d)])
+
+
+def _make_date_iso_text(forms: DialectForms, y: exp.Expression, m: exp.Expression, d: exp.Expression) -> exp.Expression:
+    text = exp.Anonymous(this="PRINTF", expressions=[exp.Literal.string("%04d-%02d-%02d"), y, m, d])
+    return exp.Date(this=text)
+
+
+def _make_date_day_arithmetic(
+    forms: DialectForms, y: exp.Expression, m: exp.Expression, d: exp.Expression
+) -> exp.Expression:
+    # 1 January of year y, then whole months from the 1st, then days: no step can clamp or roll over.
+    start = _date(exp.Literal.string("2000-01-01"))
+    years = exp.Sub(this=operand(y), expression=_number(2000))
+    first_of_year = _date(exp.DateAdd(this=start, expression=exp.Paren(this=years), unit=exp.var("YEAR")))
+    months = exp.Sub(this=operand(m), expression=_number(1))
+    first_of_month = _date(
+        exp.DateAdd(this=first_of_year, expression=exp.Paren(this=months), unit=exp.var("MONTH"))
+    )
+    days = exp.Sub(this=operand(d), expression=_number(1))
+    return forms.add_days(first_of_month, exp.Paren(this=days))
+
+
+_MAKE_DATE_STYLES: dict[
+    str, Callable[[DialectForms, exp.Expression, exp.Expression, exp.Expression], exp.Expression]
+] = {
+    "native": _make_date_native,
+    "named": _make_date_named,
+    "iso_text": _make_date_iso_text,
+    "day_arithmetic": _make_date_day_arithmetic,
+}
+
+# --- last_day styles -----------------------------------------------------------------------------
+
+
+def _last_day_native(forms: DialectForms, date: exp.Expression) -> exp.Expression:
+    return exp.LastDay(this=date)
+
+
+def _last_day_named(forms: DialectForms, date: exp.Expression) -> exp.Expression:
+    return exp.Anonymous(this=forms.profile.quirks.last_day, expressions=[date])
+
+
+def _last_day_month_arithmetic(forms: DialectForms, date: exp.Expression) -> exp.Expression:
+    # The day before the 1st of the next month: year + month // 12, month % 12 + 1, 1, minus a day.
+    year = forms.date_part("year", date.copy())
+    month = forms.date_part("month", date.copy())
+    next_year = exp.Add(this=operand(year), expression=operand(forms.int_div(month, _number(12))))
+    next_month = exp.Add(
+        this=operand(exp.Mod(this=operand(month.copy()), expression=_number(12))), expression=_number(1)
+    )
+    first_of_next = forms.make_date(next_year, next_month, _number(1))
+    return forms.add_days(first_of_next, _number(-1))
+
+
+_LAST_DAY_STYLES: dict[str, Callable[[DialectForms, exp.Expression], exp.Expression]] = {
+    "native": _last_day_native,
+    "named": _last_day_named,
+    "month_arithmetic": _last_day_month_arithmetic,
+}
+
+# --- date part styles ----------------------------------------------------------------------------
+
+_NATIVE_PARTS: dict[DatePart, type[exp.Func]] = {"year": exp.Year, "month": exp.Month, "day": exp.Day}
+
+
+def _date_part_native(forms: DialectForms, part: DatePart, date: exp.Expression) -> exp.Expression:
+    return _NATIVE_PARTS[part](this=date)
+
+
+def _date_part_iso_text(forms: DialectForms, part: DatePart, date: exp.Expression) -> exp.Expression:
+    text = exp.Anonymous(this="STRFTIME", expressions=[exp.Literal.string(_PART_FORMATS[part]), date])
+    return exp.cast(text, exp.DataType.build("INTEGER"))
+
+
+_DATE_PART_STYLES: dict[str, Callable[[DialectForms, DatePart, exp.Expression], exp.Expression]] = {
+    "native": _date_part_native,
+    "iso_text": _date_part_iso_text,
+}
+
+# --- integer division styles ---------------------------------------------------------------------
+
+
+def _int_div_native(forms: DialectForms, left: exp.Expression, right: exp.Expression) -> exp.Expression:
+    return exp.IntDiv(this=operand(left), expression=operand(right))
+
+
+def _int_div_truncating_slash(forms: DialectForms, left: exp.Expression, right: exp.Expression) -> exp.Expression:
+    big = exp.DataType.build("BIGINT")
+    return exp.Div(this=exp.cast(left, big), expression=exp.cast(right, big), typed=True)
+
+
+_INT_DIV_STYLES: dict[str, Callable[[DialectForms, exp.Expression, exp.Expression], exp.Expression]] = {
+    "native": _int_div_native,
+    "truncating_slash": _int_div_truncating_slash,
+}
+
+# --- the table from node type to rendering -------------------------------------------------------
+
+
+def _from_parts(forms: DialectForms, node: exp.Expression) -> exp.Expression:
+    return forms.make_date(node.args["year"], node.args["month"], node.args["day"])
+
+
+def _last_day(forms: DialectForms, node: exp.Expression) -> exp.Expression:
+    return forms.last_day(node.this)
+
+
+def _date_part(forms: DialectForms, node: exp.Expression) -> exp.Expression:
+    return forms.date_part(_PART_NODES[type(node)], node.this)
+
+
+def _int_div(forms: DialectForms, node: exp.Expression) -> exp.Expression:
+    return forms.int_div(node.this, node.expression)
+
+
+#: Each node type that some dialect writes differently, and its rendering.
+TRANSFORMS: dict[type[exp.Expression], Callable[[DialectForms, exp.Expression], exp.Expression]] = {
+    exp.DateFromParts: _from_parts,
+    exp.LastDay: _last_day,
+    exp.Year: _date_part,
+    exp.Month: _date_part,
+    exp.Day: _date_part,
+    exp.IntDiv: _int_div,
+}
+
+
+def _rewrite(node: exp.Expression, forms: DialectForms) -> exp.Expression:
+    for key, value in list(node.args.items()):
+        if isinstance(value, exp.Expression):
+            node.set(key, _rewrite(value, forms))
+        elif isinstance(value, list):
+            node.set(key, [_rewrite(v, forms) if isinstance(v, exp.Expression) else v for v in value])
+    transform = TRANSFORMS.get(type(node))
+    return transform(forms, node) if transform is not None else node
+
+
+def localise(expression: exp.Select, profile: DialectProfile) -> exp.Select:
+    """A copy of ``expression`` with every construct in the forms ``profile``'s engine runs."""
+    result = _rewrite(expression.copy(), DialectForms(profile))
+    assert isinstance(result, exp.Select)
+    return result
