@@ -24,6 +24,7 @@ from measureport.dialects import DialectProfile
 from measureport.render.scalars import operand
 
 DatePart = str
+Node = exp.Expression
 _PART_NODES: dict[type[exp.Expression], DatePart] = {exp.Year: "year", exp.Month: "month", exp.Day: "day"}
 _PART_FORMATS: dict[DatePart, str] = {"year": "%Y", "month": "%m", "day": "%d"}
 
@@ -53,6 +54,12 @@ def _sqlglot_writes(dialect: str, node_type: type[exp.Expression], function: str
     return text.upper().startswith(function.upper() + "(")
 
 
+@functools.cache
+def _rounds_through_decimal(dialect: str) -> bool:
+    probe = exp.Round(this=exp.cast(exp.column("x"), exp.DataType.build("DOUBLE")), decimals=_number(1))
+    return "DECIMAL" in probe.sql(dialect=dialect).upper()
+
+
 class DialectForms:
     """The builders of one dialect: each takes operands already in the dialect's forms."""
 
@@ -70,11 +77,16 @@ class DialectForms:
         return "iso_text" if self.text_dates else "day_arithmetic"
 
     def last_day_style(self) -> str:
-        """``native``, ``named`` or ``month_arithmetic``."""
+        """``native``, ``named``, ``iso_text`` or ``month_arithmetic``."""
         function = self.profile.quirks.last_day
         if self.profile.quirks.has_function("last_day"):
             return "native" if _sqlglot_writes(self.profile.sqlglot, exp.LastDay, function) else "named"
-        return "month_arithmetic"
+        return "iso_text" if self.text_dates else "month_arithmetic"
+
+    def round_style(self) -> str:
+        """``native``, or ``scaled_floor`` where sqlglot writes the rounding of a double through a
+        decimal (which rounds the decimal text of the double, not its binary value)."""
+        return "scaled_floor" if _rounds_through_decimal(self.profile.sqlglot) else "native"
 
     def date_part_style(self) -> str:
         """``native`` or ``iso_text``."""
@@ -106,6 +118,10 @@ class DialectForms:
         """``date`` moved by ``days`` whole days, as a date."""
         return _date(exp.DateAdd(this=operand(date), expression=operand(days), unit=exp.var("DAY")))
 
+    def round(self, value: exp.Expression, places: exp.Expression) -> exp.Expression:
+        """``value`` rounded half away from zero to ``places`` decimal places."""
+        return _ROUND_STYLES[self.round_style()](self, value, places)
+
     def int_div(self, left: exp.Expression, right: exp.Expression) -> exp.Expression:
         """Integer division of two non-negative integers."""
         return _INT_DIV_STYLES[self.int_div_style()](self, left, right)
@@ -114,16 +130,16 @@ class DialectForms:
 # --- make_date styles ----------------------------------------------------------------------------
 
 
-def _make_date_native(forms: DialectForms, y: exp.Expression, m: exp.Expression, d: exp.Expression) -> exp.Expression:
+def _make_date_native(forms: DialectForms, y: Node, m: Node, d: Node) -> Node:
     return exp.DateFromParts(year=y, month=m, day=d)
 
 
-def _make_date_named(forms: DialectForms, y: exp.Expression, m: exp.Expression, d: exp.Expression) -> exp.Expression:
+def _make_date_named(forms: DialectForms, y: Node, m: Node, d: Node) -> Node:
     # Some engines give date parts as numeric (PostgreSQL's EXTRACT): the function wants integers.
     return exp.Anonymous(this=forms.profile.quirks.make_date, expressions=[_int(y), _int(m), _int(d)])
 
 
-def _make_date_iso_text(forms: DialectForms, y: exp.Expression, m: exp.Expression, d: exp.Expression) -> exp.Expression:
+def _make_date_iso_text(forms: DialectForms, y: Node, m: Node, d: Node) -> Node:
     text = exp.Anonymous(this="PRINTF", expressions=[exp.Literal.string("%04d-%02d-%02d"), y, m, d])
     return exp.Date(this=text)
 
@@ -175,15 +191,22 @@ def _last_day_month_arithmetic(forms: DialectForms, date: exp.Expression) -> exp
     return forms.add_days(first_of_next, _number(-1))
 
 
+def _last_day_iso_text(forms: DialectForms, date: exp.Expression) -> exp.Expression:
+    # From the 1st a month ahead never rolls over; one call keeps the nesting shallow.
+    steps = ("start of month", "+1 month", "-1 day")
+    return exp.Anonymous(this="DATE", expressions=[date, *(exp.Literal.string(step) for step in steps)])
+
+
 _LAST_DAY_STYLES: dict[str, Callable[[DialectForms, exp.Expression], exp.Expression]] = {
     "native": _last_day_native,
+    "iso_text": _last_day_iso_text,
     "named": _last_day_named,
     "month_arithmetic": _last_day_month_arithmetic,
 }
 
 # --- date part styles ----------------------------------------------------------------------------
 
-_NATIVE_PARTS: dict[DatePart, type[exp.Func]] = {"year": exp.Year, "month": exp.Month, "day": exp.Day}
+_NATIVE_PARTS: dict[DatePart, type[exp.Expression]] = {"year": exp.Year, "month": exp.Month, "day": exp.Day}
 
 
 def _date_part_native(forms: DialectForms, part: DatePart, date: exp.Expression) -> exp.Expression:
@@ -207,7 +230,7 @@ def _int_div_native(forms: DialectForms, left: exp.Expression, right: exp.Expres
     return exp.IntDiv(this=operand(left), expression=operand(right))
 
 
-def _int_div_truncating_slash(forms: DialectForms, left: exp.Expression, right: exp.Expression) -> exp.Expression:
+def _int_div_truncating_slash(forms: DialectForms, left: Node, right: Node) -> Node:
     big = exp.DataType.build("BIGINT")
     return exp.Div(this=exp.cast(left, big), expression=exp.cast(right, big), typed=True)
 
@@ -215,6 +238,30 @@ def _int_div_truncating_slash(forms: DialectForms, left: exp.Expression, right: 
 _INT_DIV_STYLES: dict[str, Callable[[DialectForms, exp.Expression, exp.Expression], exp.Expression]] = {
     "native": _int_div_native,
     "truncating_slash": _int_div_truncating_slash,
+}
+
+# --- rounding styles -----------------------------------------------------------------------------
+
+
+def _round_native(forms: DialectForms, value: Node, places: Node) -> Node:
+    return exp.Round(this=value, decimals=places)
+
+
+def _round_scaled_floor(forms: DialectForms, value: Node, places: Node) -> Node:
+    # sign of x * FLOOR(ABS(x) * 10^n + 0.5) / 10^n: half away from zero on the binary value.
+    double = exp.DataType.build("DOUBLE")
+    scale = exp.Pow(this=exp.cast(_number(10), double), expression=places)
+    scaled = exp.Mul(this=exp.Abs(this=value), expression=scale)
+    floored = exp.Floor(this=exp.Add(this=exp.Paren(this=scaled), expression=exp.Literal.number("0.5")))
+    negative = exp.LT(this=operand(value.copy()), expression=_number(0))
+    sign = exp.Case(ifs=[exp.If(this=negative, true=_number(-1))], default=_number(1))
+    signed = exp.Mul(this=sign, expression=floored)
+    return exp.Div(this=exp.Paren(this=signed), expression=scale.copy(), typed=False, safe=False)
+
+
+_ROUND_STYLES: dict[str, Callable[[DialectForms, Node, Node], Node]] = {
+    "native": _round_native,
+    "scaled_floor": _round_scaled_floor,
 }
 
 # --- the table from node type to rendering -------------------------------------------------------
@@ -236,6 +283,10 @@ def _int_div(forms: DialectForms, node: exp.Expression) -> exp.Expression:
     return forms.int_div(node.this, node.expression)
 
 
+def _round(forms: DialectForms, node: exp.Expression) -> exp.Expression:
+    return forms.round(node.this, node.args.get("decimals") or _number(0))
+
+
 #: Each node type that some dialect writes differently, and its rendering.
 TRANSFORMS: dict[type[exp.Expression], Callable[[DialectForms, exp.Expression], exp.Expression]] = {
     exp.DateFromParts: _from_parts,
@@ -244,6 +295,7 @@ TRANSFORMS: dict[type[exp.Expression], Callable[[DialectForms, exp.Expression], 
     exp.Month: _date_part,
     exp.Day: _date_part,
     exp.IntDiv: _int_div,
+    exp.Round: _round,
 }
 
 
