@@ -82,6 +82,7 @@ class Lowering:
         self._measures: dict[tuple[str, Context, int], Scalar] = {}
         self._aggs: dict[tuple[int, RowSet, Scalar], str] = {}
         self._reach: dict[str, frozenset[str]] = {}
+        self.frames: dict[int, Frame] = {}
         # The query measures whose values each request feeds (filled by the query planner).
         self.askers: dict[int, list[str]] = {}
 
@@ -89,6 +90,7 @@ class Lowering:
 
     def new_frame(self, kind: FrameKind, parent: Frame | None, **fields: object) -> Frame:
         frame = Frame(next(self._ids), kind, parent, **fields)  # type: ignore[arg-type]
+        self.frames[frame.id] = frame
         if parent is not None:
             parent.children.append(frame)
         return frame
@@ -259,8 +261,34 @@ class Lowering:
 
     def rowset(self, ctx: Context, table: str, with_empty: bool, where: Scalar | None = None) -> RowSet:
         """The rows of ``table`` visible in ``ctx`` (only the filters that can narrow them)."""
-        filters = _drop_implied_bindings(ctx.relevant_to(self.reach(table)), self.model)
+        filters = self.without_implied(ctx.relevant_to(self.reach(table)))
         return RowSet(table, with_empty and self.is_dimension(table), filters, where)
+
+    def without_implied(self, filters: tuple[Filter, ...]) -> tuple[Filter, ...]:
+        """``filters`` less those that a bound table row makes true anyway.
+
+        While the row of a table iteration is bound whole (its key, or for a table without one,
+        every column), the rows that reach it reach that row itself or one identical to it. It
+        was drawn from the rows passing the iteration's own filters, so those filters, where
+        they still stand, say nothing more; and with the key bound, neither do the other
+        binding filters of the row. Dropping them spares joins and grouping columns."""
+        implied: set[Filter] = set()
+        for scope_id in {f.binding for f in filters if isinstance(f, EqFilter) and f.binding is not None}:
+            scope = self.frames.get(scope_id)
+            if scope is None or scope.kind != "table" or scope.table is None or scope.rows is None:
+                continue
+            table = self.model.tables[scope.table]
+            bound = {f.column for f in filters if isinstance(f, EqFilter) and f.binding == scope_id}
+            if table.key is not None and table.key in bound:
+                implied |= {
+                    f
+                    for f in filters
+                    if isinstance(f, EqFilter) and f.binding == scope_id and f.column != table.key
+                }
+            elif not set(table.columns) <= bound:
+                continue
+            implied |= set(scope.rows.filters) & set(filters)
+        return tuple(f for f in filters if f not in implied)
 
     def request_aggregate(self, frame: Frame, rows: RowSet, value: Scalar, st: State, what: str) -> Scalar:
         """A frame column holding ``value`` (over aggregate calls) for the rows of ``rows``; it lives
@@ -428,7 +456,7 @@ class Lowering:
         day = TableCol(table, column)
         cleared = ctx.clear_table(table)
         if isinstance(mod, ast.Shift):
-            source = Context.of(_drop_implied_bindings(ctx.relevant_to(self.reach(table)), self.model))
+            source = Context.of(self.without_implied(ctx.relevant_to(self.reach(table))))
             return cleared.add(ShiftFilter(table, column, source, mod.offset, mod.unit))
         rows = self.rowset(ctx, table, with_empty=False)
         last = self.request_aggregate(st.frame, rows, AggCall("max", day), st, f"last visible {day}")
@@ -438,25 +466,6 @@ class Lowering:
             first = dates.trailing_start(last, mod.count, mod.unit)
         window = And((Compare(">=", day, first), Compare("<=", day, last)))
         return cleared.add(CondFilter(table, frozenset({column}), window))
-
-
-def _drop_implied_bindings(filters: tuple[Filter, ...], model: Model) -> tuple[Filter, ...]:
-    """Binding a table row sets every column of it; where its key stays bound, the other
-    binding filters of that row say nothing more (the key picks one row) and are dropped."""
-    keyed = {
-        (f.table, f.binding)
-        for f in filters
-        if isinstance(f, EqFilter) and f.binding is not None and f.column == model.tables[f.table].key
-    }
-    return tuple(
-        f
-        for f in filters
-        if not (
-            isinstance(f, EqFilter)
-            and (f.table, f.binding) in keyed
-            and f.column != model.tables[f.table].key
-        )
-    )
 
 
 def _row_columns(expr: ast.Expr) -> list[ast.ColumnRef]:
