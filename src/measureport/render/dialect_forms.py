@@ -54,12 +54,6 @@ def _sqlglot_writes(dialect: str, node_type: type[exp.Expression], function: str
     return text.upper().startswith(function.upper() + "(")
 
 
-@functools.cache
-def _rounds_through_decimal(dialect: str) -> bool:
-    probe = exp.Round(this=exp.cast(exp.column("x"), exp.DataType.build("DOUBLE")), decimals=_number(1))
-    return "DECIMAL" in probe.sql(dialect=dialect).upper()
-
-
 class DialectForms:
     """The builders of one dialect: each takes operands already in the dialect's forms."""
 
@@ -84,9 +78,10 @@ class DialectForms:
         return "iso_text" if self.text_dates else "month_arithmetic"
 
     def round_style(self) -> str:
-        """``native``, or ``scaled_floor`` where sqlglot writes the rounding of a double through a
-        decimal (which rounds the decimal text of the double, not its binary value)."""
-        return "scaled_floor" if _rounds_through_decimal(self.profile.sqlglot) else "native"
+        """``native`` on the DuckDB baseline, whose ROUND is the language's rounding; elsewhere
+        ``scaled_floor``: engines round ties to even (ClickHouse), round the decimal text of the
+        double (sqlglot's PostgreSQL form) or sum money differently before rounding."""
+        return "native" if self.profile.engine == "duckdb" else "scaled_floor"
 
     def date_part_style(self) -> str:
         """``native`` or ``iso_text``."""
