@@ -4,7 +4,11 @@
 from __future__ import annotations
 
 import html
+import io
+import sys
 from pathlib import Path
+
+import pytest
 
 from measureport.dialects import profile_names
 from measureport.verify import DEFAULT_REFERENCE_LIMIT
@@ -106,3 +110,30 @@ def test_dialects_shows_the_quirks_of_one() -> None:
 def test_an_unknown_dialect_exits_2() -> None:
     code, _, err = invoke("dialects", "tsq")
     assert code == 2 and "there is no dialect named 'tsq'" in err and "did you mean 'tsql'?" in err
+
+
+class _Terminal(io.StringIO):
+    def isatty(self) -> bool:
+        return True
+
+
+def test_a_progress_bar_counts_the_cells_on_a_terminal(monkeypatch: pytest.MonkeyPatch) -> None:
+    from measureport.cli.verify import _Bar, _progress
+
+    monkeypatch.setattr(sys, "stderr", _Terminal())
+    with _progress() as progress:
+        assert isinstance(progress, _Bar)
+        progress.start(3)
+        progress.working("view town_2026 on tsql")
+        progress.advance()
+        progress.advance()
+        task = progress.progress.tasks[0]
+        assert (task.total, task.completed, task.description) == (3, 2, "view town_2026 on tsql")
+
+
+def test_no_progress_bar_off_a_terminal(monkeypatch: pytest.MonkeyPatch) -> None:
+    from measureport.cli.verify import _Bar, _progress
+
+    monkeypatch.setattr(sys, "stderr", io.StringIO())
+    with _progress() as progress:
+        assert not isinstance(progress, _Bar)

@@ -22,8 +22,8 @@ from measureport.errors import MeasureportError
 from measureport.query import Query, ResultTable
 from measureport.verify.cells import Cell, CellStatus, compared_cell
 from measureport.verify.checks import Check
-from measureport.verify.targets import BASELINE_ENGINE, Target, TargetChoice, Unavailable
-from measureport.workspace import DEFAULT_ENGINE, Workspace
+from measureport.verify.targets import BASELINE_ENGINE, REFERENCE, Target, TargetChoice, Unavailable
+from measureport.workspace import Workspace
 
 #: Above this many rows (all tables together) the reference evaluator is skipped: it evaluates
 #: every cell one at a time, in plain Python, and is meant for test-sized data.
@@ -172,8 +172,8 @@ class VerifyRunner:
         names = [t.name for t in targets]
         if BASELINE_ENGINE not in names:
             targets.insert(0, Target(BASELINE_ENGINE, "engine"))
-        if DEFAULT_ENGINE not in names and self.use_reference:
-            targets.insert(0, Target(DEFAULT_ENGINE, "reference"))
+        if REFERENCE not in names and self.use_reference:
+            targets.insert(0, Target(REFERENCE, "reference"))
         return targets
 
     def _built(self, targets: list[Target], named: bool) -> list[Target]:
@@ -190,7 +190,7 @@ class VerifyRunner:
                 self.engines.build(target)
             except Exception as exc:
                 reason = error_text(exc)
-                if named or target.name in (BASELINE_ENGINE, DEFAULT_ENGINE):
+                if named or target.name in (BASELINE_ENGINE, REFERENCE):
                     raise MeasureportError(f"the engine {target.name} could not start: {reason}") from None
                 self.unavailable.append(Unavailable(target.name, reason))
                 continue
@@ -201,7 +201,7 @@ class VerifyRunner:
     @property
     def baseline(self) -> str:
         """The target whose results the others are compared with."""
-        return DEFAULT_ENGINE if self.use_reference else BASELINE_ENGINE
+        return REFERENCE if self.use_reference else BASELINE_ENGINE
 
     # --- running --------------------------------------------------------------------------------
 
@@ -234,10 +234,10 @@ class VerifyRunner:
     def _baseline_cells(self, index: int, check: Check, result: VerifyResult) -> ResultTable | None:
         """Run the baseline candidates (the reference, then DuckDB) until one succeeds; fill their
         cells; return the baseline result, or None when both failed."""
-        candidates = [DEFAULT_ENGINE, BASELINE_ENGINE] if self.use_reference else [BASELINE_ENGINE]
-        if not self.use_reference and any(t.name == DEFAULT_ENGINE for t in self.targets):
+        candidates = [REFERENCE, BASELINE_ENGINE] if self.use_reference else [BASELINE_ENGINE]
+        if not self.use_reference and any(t.name == REFERENCE for t in self.targets):
             too_large = "the data are too large for the reference evaluator"
-            result.cells[(index, DEFAULT_ENGINE)] = Cell("skipped", too_large)
+            result.cells[(index, REFERENCE)] = Cell("skipped", too_large)
             self.progress.advance()
         for name in candidates:
             target = next(t for t in self.targets if t.name == name)

@@ -16,9 +16,12 @@ from typing import Literal
 from measureport.dialects import DialectProfile, all_profiles, engine_status
 from measureport.errors import MeasureportError
 from measureport.model.yamlnodes import did_you_mean
-from measureport.workspace import DEFAULT_ENGINE, engine_names
+from measureport.workspace import engine_names
 
 TargetKind = Literal["reference", "engine", "roundtrip"]
+#: The engine registry's name of the reference evaluator, the baseline when the data are small.
+REFERENCE = "reference"
+#: The engine every other one is compared with when the reference is skipped.
 BASELINE_ENGINE = "duckdb"
 
 
@@ -90,7 +93,7 @@ def default_targets(
     round-trip dialect (in that order, each group by name)."""
     profiles = list(all_profiles() if profiles is None else profiles)
     registered = engine_names() if registered is None else registered
-    targets: list[Target] = [Target(DEFAULT_ENGINE, "reference")]
+    targets: list[Target] = [Target(REFERENCE, "reference")]
     unavailable: list[Unavailable] = []
     by_engine = _engine_profiles(profiles)
     engines = [BASELINE_ENGINE, *sorted(name for name in by_engine if name != BASELINE_ENGINE)]
@@ -112,7 +115,7 @@ def named_target(
     on its engine, or by round-trip). An unknown name is a :class:`MeasureportError`."""
     by_engine = _engine_profiles(profiles)
     by_name = {p.name: p for p in profiles}
-    if name == DEFAULT_ENGINE:
+    if name == REFERENCE:
         return Target(name, "reference")
     if name in by_engine:
         return _profile_target(by_engine[name], registered)
@@ -120,7 +123,7 @@ def named_target(
         return _profile_target(by_name[name], registered)
     if name in registered:
         return Target(name, "engine")
-    known = sorted({DEFAULT_ENGINE, *registered, *by_name})
+    known = sorted({REFERENCE, *registered, *by_name})
     raise MeasureportError(
         f"there is no engine or dialect named '{name}'; the names are {', '.join(known)}",
         hint=did_you_mean(name, known),
