@@ -100,3 +100,10 @@ def test_unknown_dialect_names_the_known_ones_and_the_closest() -> None:
 def test_all_profiles_are_sorted_by_name() -> None:
     names = [p.name for p in all_profiles()]
     assert names == sorted(names) and len(names) == len(DIALECTS)
+
+
+def test_engine_url_schemes_name_their_dialect() -> None:
+    # The engine registry answers postgresql:// (and postgres://) and sc:// URLs.
+    assert load_profile("postgres").url_schemes == ("postgresql", "postgres")
+    assert load_profile("spark").url_schemes == ("sc",)
+    assert all(not p.url_schemes for p in all_profiles() if p.name not in ("postgres", "spark"))

@@ -149,3 +149,11 @@ def test_a_named_engine_that_cannot_start_is_an_error(bakery_workspace: Workspac
     assert caught.value.message == (
         "the engine double-cannot-start could not start: the pond engine is not reachable"
     )
+
+
+@pytest.mark.slow
+def test_a_database_url_is_verified_like_any_engine(bakery_workspace: Workspace, postgres_url: str) -> None:
+    # The session's PostgreSQL server (tests/conftest.py), reached by its URL.
+    result = verify(bakery_workspace, ["reference", postgres_url])
+    (target,) = [t for t in result.targets if t.source == postgres_url]
+    assert column(result, target.name) == ["pass"] * 5

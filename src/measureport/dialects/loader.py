@@ -34,7 +34,7 @@ PROFILES_DIR = Path(__file__).resolve().parents[3] / "dialects"
 
 _SETTINGS = (
     "name", "title", "sqlglot", "engine", "requires", "float_type", "quirks",
-    "missing_functions", "readback_repairs", "not_checked_here", "notes",
+    "missing_functions", "readback_repairs", "not_checked_here", "notes", "url_schemes",
 )
 _REQUIRED = ("name", "sqlglot", "engine", "float_type", "quirks")
 _REQUIREMENT_KINDS = ("modules", "programs", "checks")
@@ -183,6 +183,7 @@ def read_profile(path: str | Path) -> DialectProfile:
         readback_repairs=repairs,
         not_checked_here=_not_checked(source, found.get("not_checked_here", _ABSENT)),
         notes=_texts(source, found.get("notes", _ABSENT), "notes"),
+        url_schemes=_words(source, found.get("url_schemes", _ABSENT), "url_schemes", _NAME, "a URL scheme"),
         source=file,
     )
 

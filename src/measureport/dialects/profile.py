@@ -119,7 +119,8 @@ class Quirks:
 class DialectProfile:
     """One dialect: ``name`` is what ``--dialect`` takes, ``sqlglot`` the sqlglot dialect the SQL is
     rendered in, ``engine`` the engine registered under that name that runs it here (or
-    :data:`ROUNDTRIP`), ``float_type`` the dialect's name of an 8-byte float."""
+    :data:`ROUNDTRIP`), ``float_type`` the dialect's name of an 8-byte float. ``url_schemes``:
+    the schemes of engine URLs that reach a database of this dialect (``postgresql://...``)."""
 
     name: str
     title: str
@@ -132,6 +133,7 @@ class DialectProfile:
     readback_repairs: tuple[str, ...] = ()
     not_checked_here: frozenset[str] = frozenset()
     notes: tuple[str, ...] = ()
+    url_schemes: tuple[str, ...] = ()
     source: Path | None = field(default=None, compare=False)
 
     @property

@@ -130,7 +130,7 @@ class _Engines:
                 assert target.profile is not None
                 self.built[target.name] = RoundTripEngine.for_workspace(self.workspace, target.profile)
             else:
-                self.built[target.name] = self.workspace.engine(target.name)
+                self.built[target.name] = self.workspace.engine(target.source or target.name)
         return self.built[target.name]
 
 

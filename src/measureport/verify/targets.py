@@ -12,6 +12,7 @@ from __future__ import annotations
 from collections.abc import Collection, Sequence
 from dataclasses import dataclass
 from typing import Literal
+from urllib.parse import urlsplit
 
 from measureport.dialects import DialectProfile, all_profiles, engine_status
 from measureport.errors import MeasureportError
@@ -34,6 +35,9 @@ class Target:
     name: str
     kind: TargetKind
     profile: DialectProfile | None = None
+    #: What the engine registry builds the target from, when it is not ``name`` (a database URL,
+    #: whose ``name`` leaves out the user and password).
+    source: str | None = None
 
     def describe(self) -> str:
         """A few words on how this target computes its results."""
@@ -44,7 +48,8 @@ class Target:
             return f"SQL written for {self.profile.title}, parsed back with sqlglot and run on DuckDB"
         if self.profile is None:
             return f"the engine {self.name}"
-        return f"{self.profile.title}, running SQL written in sqlglot's {self.profile.sqlglot} dialect"
+        where = f" at {self.name}" if self.source else ""
+        return f"{self.profile.title}{where}, running SQL written in sqlglot's {self.profile.sqlglot} dialect"
 
 
 @dataclass(frozen=True)
@@ -108,15 +113,34 @@ def default_targets(
     return TargetChoice(tuple(targets), tuple(unavailable))
 
 
+def shown_url(url: str) -> str:
+    """``scheme://host:port/path`` of an engine URL: no user, password or parameters."""
+    parts = urlsplit(url)
+    host = parts.hostname or ""
+    port = f":{parts.port}" if parts.port else ""
+    return f"{parts.scheme}://{host}{port}{parts.path}"
+
+
+def url_target(url: str, profiles: Sequence[DialectProfile]) -> Target:
+    """The target of an engine URL (``postgresql://...``, ``sc://...``): the profile whose
+    ``url_schemes`` has its scheme says the dialect; the workspace builds the engine from it."""
+    scheme = url.split("://", 1)[0]
+    profile = next((p for p in profiles if scheme in p.url_schemes), None)
+    return Target(shown_url(url), "engine", profile, source=url)
+
+
 def named_target(
     name: str, profiles: Sequence[DialectProfile], registered: Collection[str]
 ) -> Target | Unavailable:
-    """The target that ``--engines`` names: ``reference``, a registered engine, or a dialect (run
-    on its engine, or by round-trip). An unknown name is a :class:`MeasureportError`."""
+    """The target that ``--engines`` names: ``reference``, a registered engine, a dialect (run
+    on its engine, or by round-trip) or an engine URL. An unknown name is a
+    :class:`MeasureportError`."""
     by_engine = _engine_profiles(profiles)
     by_name = {p.name: p for p in profiles}
     if name == REFERENCE:
         return Target(name, "reference")
+    if "://" in name:
+        return url_target(name, profiles)
     if name in by_engine:
         return _profile_target(by_engine[name], registered)
     if name in by_name:
