@@ -43,4 +43,4 @@ def test_explain_names_each_measure_and_prints_a_plan(canal_model: Path) -> None
     lines = out.splitlines()
     assert "measure hires = count(hires)" in lines
     assert "measure fee_per_hour = fee / hours" in lines
-    assert "plan:" in lines
+    assert "plan of the query:" in lines
