@@ -59,7 +59,7 @@ class Schema:
 
     def group_columns(self) -> list[str]:
         cols = [f"{t}.{c}" for t in self.dims for c in self.texts.get(t, [])]
-        cols += ["f.t1"]
+        cols += ["f.t1", "a.size"]  # a.name with a.size: one table's columns with partial nulls
         if self.has_cal:
             cols += ["cal.month", "cal.year"]
         return cols

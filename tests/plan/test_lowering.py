@@ -28,6 +28,7 @@ measure mean_ratio = mean_riders / (mean_riders given clear stops)
 measure biggest_stop = max(sum(boardings.riders) for each stops)
 measure per_stop = mean(riders for each stops)
 measure picked = restricted(stops.name)
+measure all_riders = riders given clear stops
 measure ytd = riders given to_date(days.day, year)
 """
 
@@ -52,12 +53,22 @@ def test_measures_reading_the_same_rows_in_the_same_context_are_fused(tram: Diff
 
 
 def test_the_empty_member_is_found_from_an_aggregate_of_every_row(tram: Differential) -> None:
-    # riders by stops.zone reads every boarding (no filter but the grid cell), joined to stops:
+    # all_riders ignores the stop (not null at the null member's cell), so the grid must know
+    # whether the empty member of stops exists. riders reads every boarding, joined to stops:
     # rows without a stop are counted there (o0), and the grid asks that aggregate, not a scan.
-    compiled = compile_query(tram.bound, tram.query(["riders"], ["stops.zone"]))
+    compiled = compile_query(tram.bound, tram.query(["riders", "all_riders"], ["stops.zone"]))
     assert compiled.scans["boardings"] == 1
     assert compiled.run_sql().count("COUNT(*) - COUNT(") == 1
-    tram.check(["riders"], ["stops.zone"])
+    tram.check(["riders", "all_riders"], ["stops.zone"])
+
+
+def test_no_existence_test_where_every_measure_is_null_without_a_row(tram: Differential) -> None:
+    # riders is null at a zone cell that no stop and no empty member fills, so the grid holds
+    # the null zone without asking, and the row is dropped whenever it should not be there.
+    compiled = compile_query(tram.bound, tram.query(["riders", "ytd"], ["stops.zone"]))
+    sql = compiled.run_sql()
+    assert "EXISTS" not in sql and "COUNT(*) - COUNT(" not in sql
+    tram.check(["riders", "ytd"], ["stops.zone"])
 
 
 def test_a_bare_aggregate_inside_for_each_is_computed_once_per_grid_row(tram: Differential) -> None:

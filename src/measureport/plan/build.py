@@ -49,6 +49,7 @@ from measureport.plan.nodes import (
     WindowAggregate,
 )
 from measureport.plan.nodes import Filter as FilterNode
+from measureport.plan.nullness import DeadCell
 from measureport.plan.scalar import (
     AggCall,
     And,
@@ -136,6 +137,7 @@ class Builder:
         self._aggregates: dict[tuple[int, RowSet, tuple[int, ...]], BuiltAggregate] = {}
         self._orphan_counts: dict[Relationship, Scalar] = {}
         self._counted: set[str] = set()
+        self.always_empty: set[str] = set()
         self.strategies: list[Strategy] = []
 
     # --- stages ---------------------------------------------------------------------------
@@ -185,11 +187,20 @@ class Builder:
             self._stage_groups[key] = found
         return found
 
-    def build_grid(self, frame: Frame, grid: Callable[[], PlanNode]) -> PlanNode:
+    def build_grid(
+        self, frame: Frame, grid: Callable[[], PlanNode], values: Sequence[Scalar], report: Context
+    ) -> PlanNode:
         """The grid frame: its aggregates over all the rows of a table are formed first, so that
-        the grid (built by ``grid``) can tell from them whether an empty member exists."""
+        the grid (built by ``grid``) can tell from them whether an empty member exists. Where
+        every measure (``values``) is null at the null member's cell unless the dimension has a
+        row there, the null member is held without asking (see ``nullness``)."""
+        self.always_empty = set()
+        for table in {t for t, _ in frame.grid_columns.values()}:
+            members = report.relevant_to(self.lowering.reach(table))
+            if DeadCell(frame, table, members).all_dead(values):
+                self.always_empty.add(table)
         by_stage = self._by_stage(frame)
-        self._counted = _dimensions_tested(self.model, frame)
+        self._counted = _dimensions_tested(self.model, frame, self.always_empty)
         if 1 in by_stage:
             for rows, requests in self._groups_of(frame, 1, by_stage[1]).aggregates.items():
                 if _covers_every_row(rows):
@@ -440,7 +451,12 @@ class Builder:
     # --- row sets -------------------------------------------------------------------------------
 
     def rows_relation(
-        self, rows: RowSet, frame_rel: PlanNode | None, carried: list[str], wanted: set[TableCol]
+        self,
+        rows: RowSet,
+        frame_rel: PlanNode | None,
+        carried: list[str],
+        wanted: set[TableCol],
+        grid: bool = False,
     ) -> RowsRelation:
         """The relation of a row set for the frame relation ``frame_rel`` (see the module text)."""
         filters = rows.filters
@@ -461,7 +477,8 @@ class Builder:
         use_params = bool([f for f in dynamic if f not in plain_equal] or carried or where_frame)
         via = self._prejoin_via(rows, dynamic, needed) if use_params else None
         if via is None:
-            base, columns = self.base_rows(rows.table, rows.with_empty, needed)
+            always = grid and rows.table in self.always_empty
+            base, columns = self.base_rows(rows.table, rows.with_empty, needed, always)
             dimension: Dimension | None = None
         else:
             # The dimension is joined to the parameters first, then to the rows by its key.
@@ -631,7 +648,7 @@ class Builder:
         return RowsRelation(node, rr.keys, {}, plain=rr.plain), "day"
 
     def base_rows(
-        self, table: str, with_empty: bool, needed: set[TableCol]
+        self, table: str, with_empty: bool, needed: set[TableCol], empty_always: bool = False
     ) -> tuple[PlanNode, dict[TableCol, str]]:
         """The rows of ``table`` (and its empty member when ``with_empty``), left-joined along the
         relationships to every table whose columns are ``needed``."""
@@ -653,7 +670,7 @@ class Builder:
             want(rel.many_table, rel.many_column)
             want(rel.one_table, rel.one_column)
         columns = {TableCol(t, c): self.names.of_column(t, c) for t, cols in own.items() for c in cols}
-        node = self._scan(table, own[table], with_empty)
+        node = self._scan(table, own[table], with_empty, empty_always)
         for rel in sorted(relationships, key=lambda r: len(paths[r.one_table])):
             right = self._scan(rel.one_table, own[rel.one_table], False)
             on = Compare(
@@ -664,7 +681,7 @@ class Builder:
             node = Join(node, right, "left", on)
         return node, columns
 
-    def _scan(self, table: str, cols: list[str], with_empty: bool) -> PlanNode:
+    def _scan(self, table: str, cols: list[str], with_empty: bool, empty_always: bool = False) -> PlanNode:
         spec = self.model.tables[table]
         if not cols:
             cols = [next(iter(spec.columns))]
@@ -674,7 +691,8 @@ class Builder:
         if not with_empty:
             return scan
         typed = tuple((name, spec.columns[c].type.sql) for name, c in items)
-        empty = FilterNode(NullRow(typed, label=f"empty member of {table}"), self.empty_member_exists(table))
+        null_row = NullRow(typed, label=f"empty member of {table}")
+        empty: PlanNode = null_row if empty_always else FilterNode(null_row, self.empty_member_exists(table))
         return UnionAll((scan, empty), label=f"{table} with its empty member")
 
     def empty_member_exists(self, table: str) -> Scalar:
@@ -764,11 +782,12 @@ def _covers_every_row(rows: RowSet) -> bool:
     return plain and rows.where is None and rows.distinct is None and not rows.with_empty
 
 
-def _dimensions_tested(model: Model, grid: Frame) -> set[str]:
-    """The dimensions whose empty member's existence a grid may ask about: the grid's tables and,
-    below them, every dimension pointing at one of those (its empty member points on)."""
+def _dimensions_tested(model: Model, grid: Frame, untested: set[str]) -> set[str]:
+    """The dimensions whose empty member's existence a grid may ask about: the grid's tables
+    (except ``untested`` ones) and, below them, every dimension pointing at one of those (its
+    empty member points on)."""
     found: set[str] = set()
-    pending = [t for t, _ in grid.grid_columns.values()]
+    pending = [t for t, _ in grid.grid_columns.values() if t not in untested]
     dims = {r.one_table for r in model.relationships}
     while pending:
         table = pending.pop()

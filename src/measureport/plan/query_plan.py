@@ -114,7 +114,7 @@ def _level_part(
     for measure, value in zip(query.measures, values, strict=True):
         _attribute(grid, measure, value, lowering.askers)
     requests.extend(grid.requests)
-    final = builder.build_grid(grid, lambda: _grid(lowering, builder, by, grid_names, report))
+    final = builder.build_grid(grid, lambda: _grid(lowering, builder, by, grid_names, report), values, report)
     items: list[tuple[str, Scalar]] = []
     for i, column in enumerate(query.by):
         if i < level:
@@ -197,7 +197,7 @@ def _grid(
     for table, positions in groups.items():
         rows = lowering.rowset(report, table, with_empty=True)
         wanted = {TableCol(by[i].table, by[i].column) for i in positions}
-        rr = builder.rows_relation(rows, None, [], wanted)
+        rr = builder.rows_relation(rows, None, [], wanted, grid=True)
         items = [(names[i], Col(rr.columns[TableCol(by[i].table, by[i].column)])) for i in positions]
         part = Distinct(Project(rr.node, tuple(items)), label=f"grid of {table}")
         node = part if node is None else Join(node, part, "cross")
