@@ -9,6 +9,7 @@ from __future__ import annotations
 import math
 import re
 from collections.abc import Callable, Sequence
+from decimal import Decimal, localcontext
 from functools import lru_cache
 from typing import Any
 
@@ -19,6 +20,10 @@ def arithmetic(op: str, a: Value, b: Value) -> Value:
     """``+ - * /``; null in, null out; ``/`` is true division and null for a zero divisor."""
     if a is None or b is None:
         return None
+    if op in ("+", "-", "*") and (isinstance(a, float) or isinstance(b, float)):
+        # Sums of decimal columns arrive as floats; engines add, subtract and multiply decimals
+        # exactly, so do the same on the values as written, then round once to a float.
+        return float(_exact(op, Decimal(repr(a)), Decimal(repr(b))))
     if op == "+":
         return a + b
     if op == "-":
@@ -30,6 +35,16 @@ def arithmetic(op: str, a: Value, b: Value) -> Value:
             return None
         return float(a) / float(b)
     raise ValueError(op)
+
+
+def _exact(op: str, a: Decimal, b: Decimal) -> Decimal:
+    with localcontext() as ctx:
+        ctx.prec = 60
+        if op == "+":
+            return a + b
+        if op == "-":
+            return a - b
+        return a * b
 
 
 def compare(op: str, a: Value, b: Value) -> bool | None:
