@@ -122,7 +122,8 @@ def run_compile_suite(count: int, repeat: int, run_rides: int) -> Section:
         "measures (texts of our own over the demo model, the families below taken in turn; "
         "bench/measure_texts.py) are parsed and bound with the demo's, then compiled in "
         f"{len(batches)} queries of up to {size} measures (one per grouping) and each alone. Peak "
-        "compile memory is the peak of Python allocations (tracemalloc) during a separate run.",
+        "compile memory is the peak of Python allocations (tracemalloc) during a separate run. Each "
+        "measure alone is compiled once, so its slowest time can include a pause of the machine.",
         "",
         *table(
             ("what", "seconds", "peak compile memory MiB"),

@@ -15,8 +15,10 @@ from typing import TypeVar
 
 T = TypeVar("T")
 
-# The peak resident set of each process before its last reset, in KiB: a reset forgets it.
+# The peak resident set of each process before its last reset, in KiB (a reset forgets it): over
+# the process's life, and since the last call of begin_window.
 _EARLIER_PEAKS: dict[str, int] = {}
+_WINDOW_PEAKS: dict[str, int] = {}
 
 
 def resident_kib(pid: str = "self") -> tuple[int, int]:
@@ -37,6 +39,7 @@ def reset_peak(pid: str = "self") -> bool:
     """Reset the peak resident set of ``pid`` to its current size; False where Linux refuses."""
     _, peak = resident_kib(pid)
     _EARLIER_PEAKS[pid] = max(_EARLIER_PEAKS.get(pid, 0), peak)
+    _WINDOW_PEAKS[pid] = max(_WINDOW_PEAKS.get(pid, 0), peak)
     try:
         Path(f"/proc/{pid}/clear_refs").write_text("5", encoding="ascii")
     except OSError:
@@ -67,6 +70,18 @@ def traced_peak(run: Callable[[], T]) -> tuple[T, int]:
     finally:
         tracemalloc.stop()
     return result, peak - start
+
+
+def begin_window(pid: str = "self") -> None:
+    """Start measuring the peak resident set of ``pid`` afresh (see :func:`window_peak`)."""
+    reset_peak(pid)
+    _WINDOW_PEAKS[pid] = 0
+
+
+def window_peak(pid: str = "self") -> int:
+    """The largest resident set of ``pid`` since :func:`begin_window`, in bytes."""
+    _, peak = resident_kib(pid)
+    return max(peak, _WINDOW_PEAKS.get(pid, 0)) * 1024
 
 
 def lifetime_peak(pid: str = "self") -> int:

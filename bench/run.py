@@ -26,7 +26,7 @@ from bench.compile_suite import run_compile_suite
 from bench.demo_suite import run_demo_suite
 from bench.load import CpuWatch
 from bench.machine import describe_machine
-from bench.memory import lifetime_peak, mib
+from bench.memory import begin_window, window_peak
 from bench.reference_suite import run_reference_suite
 from bench.results_file import SUITE_ORDER, merged_results, wrap_section
 from bench.sections import Section
@@ -122,10 +122,14 @@ def run_watched(name: str, run: Callable[[], Section], retries: int) -> Section:
     best: Section | None = None
     for attempt in range(retries + 1):
         print(f"{name}{f' (again, run {attempt + 1})' if attempt else ''} ...", file=sys.stderr, flush=True)
+        started = time.strftime("%Y-%m-%d %H:%M %Z")
         watch = CpuWatch()
+        begin_window()
         watch.start()
         section = run()
         section.load = watch.stop()
+        section.started = started
+        section.peak_memory = window_peak()
         print(f"  {section.load.text()}", file=sys.stderr, flush=True)
         for problem in section.problems:
             print(f"  problem: {problem}", file=sys.stderr, flush=True)
@@ -141,14 +145,12 @@ def run_watched(name: str, run: Callable[[], Section], retries: int) -> Section:
 def main(argv: list[str] | None = None) -> int:
     args = parser().parse_args(argv)
     machine = describe_machine()
-    when = time.strftime("%Y-%m-%d %H:%M %Z")
     sections = {}
     problems = 0
     for name, run in planned_runs(args):
         section = run_watched(name, run, args.retries)
         problems += len(section.problems)
-        sections[section.key] = "\n".join(section.markdown(machine.one_line(), when))
-        sections[section.key] += f"\n\nProcess peak resident set so far: {mib(lifetime_peak())} MiB.\n"
+        sections[section.key] = "\n".join(section.markdown(machine.one_line()))
     head = [
         "# Benchmark results",
         "",

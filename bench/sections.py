@@ -31,13 +31,18 @@ class Section:
     problems: list[str] = field(default_factory=list)
     load: LoadReading | None = None
     runs: int = 1
+    started: str = ""
+    peak_memory: int | None = None
 
-    def markdown(self, machine: str, when: str) -> list[str]:
+    def markdown(self, machine: str) -> list[str]:
         """The section as markdown, headed by the machine, the date and the load it ran under."""
-        head = [f"## {self.title}", "", f"Run {when} on {machine}."]
+        head = [f"## {self.title}", "", f"Run {self.started or 'at an unknown time'} on {machine}."]
         if self.load is not None:
             tries = f" (the quietest of {self.runs} runs)" if self.runs > 1 else ""
             head[-1] += f" While it ran{tries}, {self.load.text()}."
+        if self.peak_memory is not None:
+            peak = self.peak_memory / 2**20
+            head[-1] += f" The benchmark process's resident set peaked at {peak:,.0f} MiB."
         lines = [*head, "", *self.body]
         if self.targets:
             lines += ["", "Targets (reported, not asserted):", ""]
