@@ -58,7 +58,7 @@ def test_the_empty_member_is_found_from_an_aggregate_of_every_row(tram: Differen
     # rows without a stop are counted there (o0), and the grid asks that aggregate, not a scan.
     compiled = compile_query(tram.bound, tram.query(["riders", "all_riders"], ["stops.zone"]))
     assert compiled.scans["boardings"] == 1
-    assert compiled.run_sql().count("COUNT(*) - COUNT(") == 1
+    assert '"o0" > 0' in compiled.run_sql()  # the grid reads the counted rows
     tram.check(["riders", "all_riders"], ["stops.zone"])
 
 
@@ -67,7 +67,7 @@ def test_no_existence_test_where_every_measure_is_null_without_a_row(tram: Diffe
     # the null zone without asking, and the row is dropped whenever it should not be there.
     compiled = compile_query(tram.bound, tram.query(["riders", "ytd"], ["stops.zone"]))
     sql = compiled.run_sql()
-    assert "EXISTS" not in sql and "COUNT(*) - COUNT(" not in sql
+    assert "EXISTS" not in sql and 'AS "o0"' not in sql
     tram.check(["riders", "ytd"], ["stops.zone"])
 
 

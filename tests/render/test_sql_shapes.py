@@ -49,14 +49,49 @@ def parsed(tram: Differential, measures: list[str], by: list[str], totals: bool 
     return tree
 
 
-def reads(select: exp.Select, table: str) -> bool:
-    """Whether ``select`` reads ``table`` in its own FROM or JOINs (not in nested selects)."""
+def is_partial(select: exp.Select, table: str) -> bool:
+    """An eager pre-aggregation: ``table`` grouped by the keys it points with, row count ``n``."""
+    return (
+        bool(select.args.get("group"))
+        and _reads_directly(select, table)
+        and any(e.alias == "n" for e in select.expressions)
+    )
+
+
+def _reads_directly(select: exp.Select, table: str) -> bool:
     sources = [select.args.get("from_"), *list(select.args.get("joins") or [])]
     return any(isinstance(s.this, exp.Table) and s.this.name == table for s in sources if s is not None)
 
 
+def _source_select(source: exp.Expression, ctes: dict[str, exp.Expression]) -> exp.Expression | None:
+    if isinstance(source, exp.Subquery):
+        return source.this
+    if isinstance(source, exp.Table):
+        return ctes.get(source.name)
+    return None
+
+
+def reads(select: exp.Select, table: str, ctes: dict[str, exp.Expression] | None = None) -> bool:
+    """Whether ``select`` reads ``table`` in its own FROM or JOINs, directly or as partial rows."""
+    if _reads_directly(select, table):
+        return True
+    sources = [select.args.get("from_"), *list(select.args.get("joins") or [])]
+    for s in sources:
+        inner = _source_select(s.this, ctes or {}) if s is not None else None
+        if isinstance(inner, exp.Select) and is_partial(inner, table):
+            return True
+    return False
+
+
 def grouped_selects(tree: exp.Expression, table: str) -> list[exp.Select]:
-    return [s for s in tree.find_all(exp.Select) if s.args.get("group") and reads(s, table)]
+    """The aggregates over ``table`` (an eager pre-aggregation counts as part of its aggregate)."""
+    with_ = tree.args.get("with_")
+    ctes = {cte.alias: cte.this for cte in with_.expressions} if with_ is not None else {}
+    return [
+        s
+        for s in tree.find_all(exp.Select)
+        if s.args.get("group") and reads(s, table, ctes) and not is_partial(s, table)
+    ]
 
 
 def group_width(select: exp.Select) -> int:
@@ -106,6 +141,18 @@ def test_division_is_true_division_with_a_null_for_a_zero_divisor(tram: Differen
     assert isinstance(division.expression, exp.Nullif)
 
 
+def test_a_fact_is_pre_aggregated_by_the_keys_it_points_with(tram: Differential) -> None:
+    # Boardings are grouped by stop_id alone (no join), then the partial rows are joined to stops
+    # and lines and summed per line.
+    tree = parsed(tram, ["riders"], ["lines.name"])
+    partial = [s for s in tree.find_all(exp.Select) if is_partial(s, "boardings")]
+    assert len(partial) == 1
+    assert [c.name for c in partial[0].args["group"].expressions] == ["stop_id"]
+    assert not partial[0].args.get("joins")
+    (final,) = grouped_selects(tree, "boardings")
+    assert final.find(exp.Sum) is not None
+
+
 def test_measures_over_the_same_rows_share_one_aggregate(tram: Differential) -> None:
     tree = parsed(tram, ["riders", "boardings_n"], ["stops.zone"])
     (aggregate,) = grouped_selects(tree, "boardings")
@@ -142,10 +189,11 @@ def test_for_each_with_binding_is_a_nested_aggregation_weighted_by_row_counts(tr
 
 
 def test_a_row_expression_iteration_is_one_aggregate_of_the_expression(tram: Differential) -> None:
+    # One aggregate over boardings (here pre-aggregated by stop: SUM(riders * 2) per stop_id).
     tree = parsed(tram, ["doubled"], ["stops.name"])
-    (aggregate,) = grouped_selects(tree, "boardings")
-    total = aggregate.find(exp.Sum)
-    assert total is not None and total.find(exp.Mul) is not None
+    assert len(grouped_selects(tree, "boardings")) == 1
+    sums = [m for m in tree.find_all(exp.Sum) if m.find(exp.Mul) is not None]
+    assert any(c.name == "riders" for m in sums for c in m.find_all(exp.Column))
 
 
 def test_rank_is_a_dense_rank_window_partitioned_by_the_rest_of_the_grid(tram: Differential) -> None:

@@ -32,6 +32,7 @@ from measureport.plan.context import (
     TableCol,
     table_columns,
 )
+from measureport.plan.eager import eager_parts
 from measureport.plan.frames import AggRequest, Frame, IterRequest, RankRequest, Request, RowSet
 from measureport.plan.lower import Lowering
 from measureport.plan.names import Names
@@ -279,17 +280,22 @@ class Builder:
         if frame.kind == "grid" and _covers_every_row(rows):
             counted = [r for r in self.model.relationships_from(rows.table) if r.one_table in self._counted]
             wanted |= {TableCol(r.one_table, r.one_column) for r in counted}
-        rr = self.rows_relation(rows, before, carried, wanted)
+        exprs = [r.value for r in requests] + [
+            Arith("-", AggCall("count_rows"), AggCall("count", TableCol(r.one_table, r.one_column)))
+            for r in counted
+        ]
+        eager = None if carried else self._eager(rows, exprs)
+        if eager is not None:
+            rr, locals_ = eager
+        else:
+            rr = self.rows_relation(rows, before, carried, wanted)
+            locals_ = [rr.local(e) for e in exprs]
         keys = [(f"k{i}", Col(local)) for i, (local, _) in enumerate(rr.keys)]
         values: list[tuple[str, Scalar]] = []
-        for i, request in enumerate(requests):
-            value = rr.local(request.value)
-            if not keys:
-                value = _guard_empty(value)
-            values.append((f"v{i}", value))
-        for i, rel in enumerate(counted):
-            key_col = Col(rr.columns[TableCol(rel.one_table, rel.one_column)])
-            values.append((f"o{i}", Arith("-", AggCall("count_rows"), AggCall("count", key_col))))
+        for i, value in enumerate(locals_[: len(requests)]):
+            values.append((f"v{i}", value if keys else _guard_empty(value)))
+        for i, value in enumerate(locals_[len(requests) :]):
+            values.append((f"o{i}", value))
         node = Aggregate(rr.node, tuple(keys), tuple(values), label=_agg_label(rows))
         for i, rel in enumerate(counted):
             if rel not in self._orphan_counts:
@@ -298,6 +304,40 @@ class Builder:
         found = BuiltAggregate(node, rr)
         self._aggregates[key] = found
         return found
+
+    def _eager(self, rows: RowSet, exprs: list[Scalar]) -> tuple[RowsRelation, list[Scalar]] | None:
+        """The row set pre-aggregated by the keys it points with (see ``eager``), joined to the
+        dimensions it reads, with ``exprs`` over the joined partial rows."""
+
+        def scan(table: str, cols: list[str]) -> Scan:
+            items = tuple((self.names.of_column(table, c), c) for c in cols)
+            return Scan(table, self._relation(table), items, label=table)
+
+        parts = eager_parts(
+            self.model, rows, exprs, self.names.of_column, scan, lambda f, cols: _local_filter(f, cols, {})
+        )
+        if parts is None:
+            return None
+        needed = set(parts.group)
+        for final in parts.finals:
+            needed |= table_columns(final)
+        others = [f for f in rows.filters if f.table != rows.table]
+        for f in others:
+            needed |= _filter_columns(f)
+        node, columns = self._with_ancestors(parts.node, rows.table, needed)
+        predicate = conjunction([_local_filter(f, columns, {}) for f in others if not f.frame_columns()])
+        if predicate is not None:
+            node = FilterNode(node, predicate)
+        keys: list[tuple[str, Scalar]] = [
+            (columns[TableCol(f.table, f.column)], f.value)
+            for f in rows.filters
+            if isinstance(f, EqFilter) and f.frame_columns()
+        ]
+
+        def local(expr: Scalar) -> Scalar:
+            return transform(expr, lambda n: Col(columns[n]) if isinstance(n, TableCol) else None)
+
+        return RowsRelation(node, keys, columns), [local(f) for f in parts.finals]
 
     def _as_windows(self, frame: Frame, groups: dict[RowSet, list[AggRequest]]) -> list[Window]:
         """Aggregates at a coarser grain than the grid that are computed from the grid's own
@@ -671,6 +711,44 @@ class Builder:
             want(rel.one_table, rel.one_column)
         columns = {TableCol(t, c): self.names.of_column(t, c) for t, cols in own.items() for c in cols}
         node = self._scan(table, own[table], with_empty, empty_always)
+        return self._join_ancestors(node, table, relationships, own, columns)
+
+    def _with_ancestors(
+        self, root: PlanNode, table: str, needed: set[TableCol]
+    ) -> tuple[PlanNode, dict[TableCol, str]]:
+        """``root`` (rows of ``table`` with its needed columns under their canonical names)
+        left-joined along the relationships to the tables of ``needed``."""
+        paths = reachable(self.model, table)
+        relationships = []
+        for tc in sorted(needed, key=str):
+            for rel in paths[tc.table]:
+                if rel not in relationships:
+                    relationships.append(rel)
+        own: dict[str, list[str]] = defaultdict(list)
+        for tc in sorted(needed, key=str):
+            if tc.table != table and tc.column not in own[tc.table]:
+                own[tc.table].append(tc.column)
+        for rel in relationships:
+            if rel.many_table != table and rel.many_column not in own[rel.many_table]:
+                own[rel.many_table].append(rel.many_column)
+            if rel.one_column not in own[rel.one_table]:
+                own[rel.one_table].append(rel.one_column)
+        columns = {TableCol(t, c): self.names.of_column(t, c) for t, cols in own.items() for c in cols}
+        columns.update({tc: self.names.of_column(tc.table, tc.column) for tc in needed if tc.table == table})
+        for rel in relationships:
+            if rel.many_table == table:
+                columns[TableCol(table, rel.many_column)] = self.names.of_column(table, rel.many_column)
+        return self._join_ancestors(root, table, relationships, own, columns)
+
+    def _join_ancestors(
+        self,
+        node: PlanNode,
+        table: str,
+        relationships: list[Relationship],
+        own: dict[str, list[str]],
+        columns: dict[TableCol, str],
+    ) -> tuple[PlanNode, dict[TableCol, str]]:
+        paths = reachable(self.model, table)
         for rel in sorted(relationships, key=lambda r: len(paths[r.one_table])):
             right = self._scan(rel.one_table, own[rel.one_table], False)
             on = Compare(

@@ -1,0 +1,177 @@
+"""Eager aggregation: aggregate a table's rows by the keys it points with, then join the few
+partial rows to the dimensions and combine the partials.
+
+``sum(rides.fare)`` by a district is the sum over the rides' stations of each station's sum: the
+rides are grouped by ``station_id`` (no join), the partial rows joined to stations and districts
+(left joins, so that orphan keys still reach the empty member), then summed per district. The
+dimensions' columns depend only on the keys, so every filter and grouping column on them means
+the same on a partial row as on each ride it stands for.
+
+It is exact for aggregates that combine: a count or sum is the sum of the partial counts or
+sums, a minimum the minimum of the partial minima, a mean the summed sums over the summed counts.
+An aggregate of a dimension's column weighs its value by the number of rows behind the partial
+row (``distinct`` needs no weight). ``distinct`` of the table's own column does not combine, so
+such a row set is aggregated as usual.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Callable, Sequence
+from dataclasses import dataclass
+
+from measureport.model.graph import reachable
+from measureport.model.schema import Model
+from measureport.plan.context import EqFilter, Filter, ShiftFilter, TableCol, table_columns
+from measureport.plan.frames import RowSet
+from measureport.plan.nodes import Aggregate, PlanNode, Scan
+from measureport.plan.nodes import Filter as FilterNode
+from measureport.plan.scalar import (
+    AggCall,
+    Arith,
+    Case,
+    Col,
+    Const,
+    IsNullTest,
+    Scalar,
+    columns_used,
+    conjunction,
+    transform,
+)
+
+ROWS = "n"  # the partial rows' row count
+
+
+@dataclass
+class EagerParts:
+    """A pre-aggregated table: ``node`` holds one partial row per combination of the table's
+    ``group`` columns (canonical names), with the partial values; ``finals`` are the request
+    values over the joined partial rows."""
+
+    node: PlanNode
+    group: list[TableCol]
+    finals: list[Scalar]
+
+
+def eager_parts(
+    model: Model,
+    rows: RowSet,
+    values: Sequence[Scalar],
+    canonical: Callable[[str, str], str],
+    scan: Callable[[str, list[str]], Scan],
+    local: Callable[[Filter, dict[TableCol, str]], Scalar],
+) -> EagerParts | None:
+    """The eager form of ``values`` (over ``TableCol``s and aggregate calls) for ``rows``, or
+    None where it would not be exact or would gain nothing."""
+    table = rows.table
+    if rows.where is not None or rows.distinct is not None or rows.with_empty:
+        return None
+    for f in rows.filters:
+        if isinstance(f, ShiftFilter) or (f.frame_columns() and not isinstance(f, EqFilter)):
+            return None
+    if any(columns_used(v) for v in values):
+        return None  # values carrying frame columns join parameters: not here
+    own_filters = [f for f in rows.filters if f.table == table]
+    dims_read = {tc.table for v in values for tc in table_columns(v) if tc.table != table}
+    dims_read |= {f.table for f in rows.filters if f.table != table}
+    if not dims_read:
+        return None  # nothing is joined: the plain aggregate is already one pass
+    partials: dict[AggCall, str] = {}
+
+    def partial(call: AggCall) -> str:
+        if call not in partials:
+            partials[call] = f"q{len(partials)}"
+        return partials[call]
+
+    finals: list[Scalar] = []
+    for value in values:
+        final = _combine(value, table, partial)
+        if final is None:
+            return None
+        finals.append(final)
+    # Group by the keys that lead to the dimensions read, and the table's own grouping columns.
+    paths = reachable(model, table)
+    group = sorted(
+        {TableCol(table, paths[d][0].many_column) for d in dims_read}
+        | {TableCol(f.table, f.column) for f in own_filters if isinstance(f, EqFilter) and f.frame_columns()},
+        key=str,
+    )
+    read = {tc.column for tc in group}
+    for call in partials:
+        read |= {tc.column for tc in table_columns(call)}
+    static_own = [f for f in own_filters if not f.frame_columns()]
+    for f in static_own:
+        read |= {tc.column for tc in _filter_columns(f)}
+    source: PlanNode = scan(table, sorted(read))
+    columns = {TableCol(table, c): canonical(table, c) for c in read}
+    predicate = conjunction([local(f, columns) for f in static_own])
+    if predicate is not None:
+        source = FilterNode(source, predicate)
+    keys = tuple((columns[tc], Col(columns[tc])) for tc in group)
+    values_out: list[tuple[str, Scalar]] = [(ROWS, AggCall("count_rows"))]
+    for call, name in partials.items():
+        assert call.argument is not None
+        argument = transform(call.argument, lambda n: Col(columns[n]) if isinstance(n, TableCol) else None)
+        values_out.append((name, AggCall(call.func, argument)))
+    node = Aggregate(source, keys, tuple(values_out), label=f"{table} by the keys it points with")
+    return EagerParts(node, group, finals)
+
+
+def _filter_columns(f: Filter) -> set[TableCol]:
+    if isinstance(f, EqFilter):
+        return {TableCol(f.table, f.column)}
+    predicate = getattr(f, "predicate", None)
+    return table_columns(predicate) if predicate is not None else set()
+
+
+def _combine(value: Scalar, table: str, partial: Callable[[AggCall], str]) -> Scalar | None:
+    """``value`` over the joined partial rows, or None when an aggregate in it does not combine."""
+    failed = False
+
+    def swap(node: Scalar) -> Scalar | None:
+        nonlocal failed
+        if not isinstance(node, AggCall):
+            return None
+        combined = _combine_call(node, table, partial)
+        if combined is None:
+            failed = True
+            return node
+        return combined
+
+    combined = transform(value, swap)
+    return None if failed else combined
+
+
+def _combine_call(call: AggCall, table: str, partial: Callable[[AggCall], str]) -> Scalar | None:
+    rows = Col(ROWS)
+    if call.func == "count_rows":
+        return AggCall("sum", rows)
+    argument = call.argument
+    assert argument is not None
+    tables = {tc.table for tc in table_columns(argument)}
+    if tables == {table}:
+        if call.func in ("sum", "count"):
+            return AggCall("sum", Col(partial(call)))
+        if call.func in ("min", "max"):
+            return AggCall(call.func, Col(partial(call)))
+        if call.func == "mean":
+            total = Col(partial(AggCall("sum", argument)))
+            counted = Col(partial(AggCall("count", argument)))
+            return Arith("/", AggCall("sum", total), AggCall("sum", counted))
+        return None  # distinct of the table's own column does not combine
+    if table in tables:
+        return None  # a row expression mixing the table's and a dimension's columns
+    # A dimension's column (or a constant): its value on the partial row, weighed by the rows.
+    present = IsNullTest(argument, negated=True)
+    if call.func == "sum":
+        return AggCall("sum", Arith("*", argument, rows))
+    if call.func == "count":
+        return AggCall("sum", Case(((present, rows),), Const(0, "number")))
+    if call.func == "mean":
+        return Arith(
+            "/", AggCall("sum", Arith("*", argument, rows)), AggCall("sum", Case(((present, rows),)))
+        )
+    if call.func in ("min", "max"):
+        return call
+    if call.func == "count_distinct":
+        return call
+    return None
