@@ -61,7 +61,7 @@ def eager_parts(
     local: Callable[[Filter, dict[TableCol, str]], Scalar],
 ) -> EagerParts | None:
     """The eager form of ``values`` (over ``TableCol``s and aggregate calls) for ``rows``, or
-    None where it would not be exact or would gain nothing."""
+    None where it would not be exact or would likely gain nothing."""
     table = rows.table
     if rows.where is not None or rows.distinct is not None or rows.with_empty:
         return None
@@ -95,6 +95,10 @@ def eager_parts(
         | {TableCol(f.table, f.column) for f in own_filters if isinstance(f, EqFilter) and f.frame_columns()},
         key=str,
     )
+    if len(group) != 1:
+        # Partial rows by two keys or more may be nearly as many as the rows: joining first is
+        # then the cheaper plan.
+        return None
     read = {tc.column for tc in group}
     for call in partials:
         read |= {tc.column for tc in table_columns(call)}

@@ -76,7 +76,15 @@ class ScalarRenderer:
         return operand(self.render(node))
 
     def _Col(self, node: S.Col) -> exp.Expression:
-        return self.columns[node.name].copy()
+        value = self.columns[node.name]
+        if isinstance(value, exp.Column) and set(value.args) <= {"this", "table"}:
+            # A fresh reference is much cheaper to build than a deep copy of one.
+            table = value.args.get("table")
+            return exp.Column(
+                this=exp.Identifier(this=value.name, quoted=True),
+                table=exp.Identifier(this=table.name, quoted=True) if table is not None else None,
+            )
+        return value.copy()
 
     def _Const(self, node: S.Const) -> exp.Expression:
         return literal(node.value, node.kind)
