@@ -96,6 +96,7 @@ class CompiledQuery:
                 lines.append("  plan of this measure alone:")
                 lines += ["    " + line for line in format_plan(alone.root).splitlines()]
             lines.append("")
+        lines += [f"grid: {note}" for note in self.query_plan.notes]
         scans = ", ".join(f"{t} {n}x" for t, n in sorted(self.scans.items())) or "none"
         lines.append(f"tables read by the statement: {scans}")
         lines.append("plan of the query:")

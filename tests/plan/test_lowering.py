@@ -68,6 +68,7 @@ def test_no_existence_test_where_every_measure_is_null_without_a_row(tram: Diffe
     compiled = compile_query(tram.bound, tram.query(["riders", "ytd"], ["stops.zone"]))
     sql = compiled.run_sql()
     assert "EXISTS" not in sql and 'AS "o0"' not in sql
+    assert "holds the empty member of stops without testing that it exists" in compiled.explain()
     tram.check(["riders", "ytd"], ["stops.zone"])
 
 
@@ -109,6 +110,7 @@ def test_explain_names_each_measure_and_how_its_parts_became_sql(tram: Different
     assert "correlated predicate" in text
     assert "window: the sum of the grid's own aggregate" in text  # clear stops on a sum
     assert "a coarser grain than the grid" in text  # ... and on a mean: a join-back
+    assert "eager aggregation" in text
     assert "plan of this measure alone:" in text
     assert "tables read by the statement: " in text and "plan of the query:" in text
 

@@ -85,6 +85,7 @@ class RowsRelation:
     carried: dict[str, str] = field(default_factory=dict)
     uses_params: bool = False
     plain: set[int] = field(default_factory=set)  # keys matched with "=" (never a null)
+    pre_aggregated_by: str | None = None  # the key of an eager pre-aggregation, if any
 
     def key_test(self, index: int, frame_value: Scalar, column: Scalar) -> Scalar:
         """The join test of key ``index``: null-safe equality, or "=" for a condition's value."""
@@ -140,6 +141,7 @@ class Builder:
         self._counted: set[str] = set()
         self.always_empty: set[str] = set()
         self.strategies: list[Strategy] = []
+        self.notes: list[str] = []
 
     # --- stages ---------------------------------------------------------------------------
 
@@ -200,6 +202,12 @@ class Builder:
             members = report.relevant_to(self.lowering.reach(table))
             if DeadCell(frame, table, members).all_dead(values):
                 self.always_empty.add(table)
+                note = (
+                    f"the grid holds the empty member of {table} without testing that it exists:"
+                    " every measure is null where no row of it is visible, so a needless row drops"
+                )
+                if note not in self.notes:
+                    self.notes.append(note)
         by_stage = self._by_stage(frame)
         self._counted = _dimensions_tested(self.model, frame, self.always_empty)
         if 1 in by_stage:
@@ -337,7 +345,8 @@ class Builder:
         def local(expr: Scalar) -> Scalar:
             return transform(expr, lambda n: Col(columns[n]) if isinstance(n, TableCol) else None)
 
-        return RowsRelation(node, keys, columns), [local(f) for f in parts.finals]
+        (key,) = parts.group
+        return RowsRelation(node, keys, columns, pre_aggregated_by=str(key)), [local(f) for f in parts.finals]
 
     def _as_windows(self, frame: Frame, groups: dict[RowSet, list[AggRequest]]) -> list[Window]:
         """Aggregates at a coarser grain than the grid that are computed from the grid's own
@@ -835,6 +844,11 @@ class Builder:
             how = "not grouped: no grid column filters these rows, so one value serves every grid row"
         else:
             how = "one value for every row of the frame (no filter depends on the row)"
+        if rr.pre_aggregated_by is not None:
+            how += (
+                f"; the rows are first aggregated by {rr.pre_aggregated_by} alone, and only those"
+                " partial rows are joined to the dimensions (eager aggregation)"
+            )
         return f"{what}; {how}"
 
 

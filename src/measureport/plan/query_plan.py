@@ -43,6 +43,7 @@ class QueryPlan:
     strategies: list[Strategy] = field(default_factory=list)
     askers: dict[int, list[str]] = field(default_factory=dict)
     requests: list[Request] = field(default_factory=list)
+    notes: list[str] = field(default_factory=list)
 
     def strategies_for(self, measure: str) -> list[Strategy]:
         """How the relational steps that ``measure`` needed were chosen."""
@@ -67,7 +68,7 @@ def plan_query(bound: BoundModel, query: Query) -> QueryPlan:
     keys = _order(query)
     root = Result(union, public, keys, label="result")
     executable = Result(union, (*public, (LEVEL_COLUMN, Col(LEVEL_COLUMN))), keys, label="result")
-    return QueryPlan(query, root, executable, builder.strategies, lowering.askers, requests)
+    return QueryPlan(query, root, executable, builder.strategies, lowering.askers, requests, builder.notes)
 
 
 def _check_output_names(query: Query) -> None:
