@@ -198,7 +198,7 @@ def _grid(
     for table, positions in groups.items():
         rows = lowering.rowset(report, table, with_empty=True)
         wanted = {TableCol(by[i].table, by[i].column) for i in positions}
-        rr = builder.rows_relation(rows, None, [], wanted, grid=True)
+        rr = builder.rowsets.rows_relation(rows, None, [], wanted, grid=True)
         items = [(names[i], Col(rr.columns[TableCol(by[i].table, by[i].column)])) for i in positions]
         part = Distinct(Project(rr.node, tuple(items)), label=f"grid of {table}")
         node = part if node is None else Join(node, part, "cross")
