@@ -15,7 +15,7 @@ from measureport.plan.scalar import AggCall, Col, Scalar
 
 @dataclass
 class Window:
-    """A frame column computed as a window over another (see ``Builder._as_windows``)."""
+    """A frame column computed as a window over another (see :func:`as_windows`)."""
 
     out: str
     func: Literal["sum", "min", "max"]
