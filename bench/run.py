@@ -16,6 +16,7 @@ not asserted; the exit status is 1 only when answers disagree or a query fails.
 from __future__ import annotations
 
 import argparse
+import re
 import sys
 import time
 from collections.abc import Callable, Sequence
@@ -55,7 +56,7 @@ def count(text: str) -> int:
 
 def counts(text: str) -> list[int]:
     """Comma-separated counts: ``5M,10M``."""
-    return [count(part) for part in text.replace(";", " ").split() for part in part.split(",") if part]
+    return [count(part) for part in re.split(r"[,\s]+", text) if part]
 
 
 def suites(text: str) -> list[str]:

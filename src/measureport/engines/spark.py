@@ -112,6 +112,14 @@ def local_session(master: str = LOCAL_MASTER) -> SparkSession:
     return builder.getOrCreate()
 
 
+def active_local_session() -> SparkSession | None:
+    """The local Spark session already running in this process, if any (someone else's)."""
+    _import_pyspark()
+    from pyspark.sql import SparkSession
+
+    return SparkSession.getActiveSession()
+
+
 def connect_session(url: str) -> SparkSession:
     """A Spark Connect session with the cluster at ``url`` (``sc://host:port``), time zone UTC, ANSI on."""
     _import_pyspark()
@@ -178,7 +186,13 @@ class SparkEngine(SqlEngine):
         elif remote is not None:
             self.session = connect_session(remote)
         else:
-            self.session = local_session(master)
+            running = active_local_session()
+            if running is not None:
+                # getOrCreate would hand back this session; stopping it would end its owner's JVM.
+                self._owns_local = self._owns_session = False
+                self.session = running
+            else:
+                self.session = local_session(master)
         self.load_tables(dataset)
 
     @classmethod
