@@ -161,12 +161,24 @@ def test_measures_over_the_same_rows_share_one_aggregate(tram: Differential) -> 
 
 def test_a_year_to_date_is_a_range_join_on_per_row_parameters(tram: Differential) -> None:
     tree = parsed(tram, ["ytd"], ["days.month"])
-    (aggregate,) = [s for s in tree.find_all(exp.Select) if s.args.get("group") and s.find(exp.Sum)]
+    (aggregate,) = grouped_selects(tree, "boardings")
     joins = aggregate.args.get("joins") or []
     conditions = [j.args.get("on") for j in joins if j.args.get("on") is not None]
-    # The rows join distinct (start, last day) parameters on day >= start and day <= last.
+    # The days join distinct (start, last day) parameters on day >= start and day <= last.
     assert any(c.find(exp.GTE) is not None and c.find(exp.LTE) is not None for c in conditions)
     assert any(s.args.get("distinct") for s in aggregate.find_all(exp.Select))
+    # Boardings are summed per day once (no join), and only those daily rows meet the ranges.
+    (partial,) = [s for s in tree.find_all(exp.Select) if is_partial(s, "boardings")]
+    assert [c.name for c in partial.args["group"].expressions] == ["day"]
+    assert not partial.args.get("joins")
+
+
+def test_windows_of_days_over_the_same_rows_share_one_daily_aggregate(tram: Differential) -> None:
+    # A year to date and the same months a year before read one partial aggregate of boardings
+    # (a common table expression): one scan of the fact table.
+    tram.check(["ytd", "last_year", "riders"], ["days.month"])
+    compiled = tram.engine.compile(tram.query(["ytd", "last_year", "riders"], ["days.month"]))
+    assert compiled.scans["boardings"] == 1
 
 
 def test_a_shift_joins_the_moved_days_as_a_set(tram: Differential) -> None:

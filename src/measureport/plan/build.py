@@ -235,7 +235,7 @@ class Builder:
             Arith("-", AggCall("count_rows"), AggCall("count", TableCol(r.one_table, r.one_column)))
             for r in counted
         ]
-        eager = None if carried else self.rowsets.eager_relation(rows, exprs)
+        eager = None if carried else self.rowsets.eager_relation(rows, exprs, before)
         if eager is not None:
             rr, locals_ = eager
         else:

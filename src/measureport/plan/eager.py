@@ -59,14 +59,19 @@ def eager_parts(
     canonical: Callable[[str, str], str],
     scan: Callable[[str, list[str]], Scan],
     local: Callable[[Filter, dict[TableCol, str]], Scalar],
+    correlated: bool = False,
 ) -> EagerParts | None:
     """The eager form of ``values`` (over ``TableCol``s and aggregate calls) for ``rows``, or
-    None where it would not be exact or would likely gain nothing."""
+    None where it would not be exact or would likely gain nothing. With ``correlated``, filters
+    on a dimension that read frame values (day ranges, shifted days, values from outside) are
+    allowed: they test only the dimension's columns, which a partial row has as the rows it
+    stands for, so the caller may apply them to the joined partial rows."""
     table = rows.table
     if rows.where is not None or rows.distinct is not None or rows.with_empty:
         return None
     for f in rows.filters:
-        if isinstance(f, ShiftFilter) or (f.frame_columns() and not isinstance(f, EqFilter)):
+        dynamic = isinstance(f, ShiftFilter) or (f.frame_columns() and not isinstance(f, EqFilter))
+        if dynamic and (not correlated or f.table == table):
             return None
     if any(columns_used(v) for v in values):
         return None  # values carrying frame columns join parameters: not here

@@ -20,7 +20,7 @@ from measureport.model.graph import reachable
 from measureport.model.schema import Model, Relationship
 from measureport.plan import dates
 from measureport.plan.context import CondFilter, EqFilter, Filter, ShiftFilter, TableCol, table_columns
-from measureport.plan.eager import eager_parts
+from measureport.plan.eager import EagerParts, eager_parts
 from measureport.plan.frames import RowSet
 from measureport.plan.lower import Lowering
 from measureport.plan.names import Names
@@ -99,8 +99,11 @@ class RowSets:
         carried: list[str],
         wanted: set[TableCol],
         grid: bool = False,
+        eager: EagerParts | None = None,
     ) -> RowsRelation:
-        """The relation of a row set for the frame relation ``frame_rel`` (see the module text)."""
+        """The relation of a row set for the frame relation ``frame_rel`` (see the module text).
+        With ``eager``, the table's rows are its partial rows (see ``eager``): its own filters
+        are applied there already, and only the grouping key of its own columns is left."""
         filters = rows.filters
         # A set of shifted days is always joined in, even when it reads no frame value.
         static = [f for f in filters if not f.frame_columns() and not isinstance(f, ShiftFilter)]
@@ -116,18 +119,19 @@ class RowSets:
             needed |= table_columns(rows.where)
         if rows.distinct:
             needed |= set(rows.distinct)
+        if eager is not None:
+            needed = {tc for tc in needed if tc.table != rows.table} | set(eager.group)
+            static = [f for f in static if f.table != rows.table]
         use_params = bool([f for f in dynamic if f not in plain_equal] or carried or where_frame)
         via = self._prejoin_via(rows, dynamic, needed) if use_params else None
         if via is None:
             always = grid and rows.table in self.always_empty
-            base, columns = self.base_rows(rows.table, rows.with_empty, needed, always)
+            base, columns = self._base(rows, needed, always, eager)
             dimension: Dimension | None = None
         else:
             # The dimension is joined to the parameters first, then to the rows by its key.
             far = {tc for tc in needed if tc.table != via.one_table}
-            base, columns = self.base_rows(
-                rows.table, rows.with_empty, far | {TableCol(via.many_table, via.many_column)}
-            )
+            base, columns = self._base(rows, far | {TableCol(via.many_table, via.many_column)}, False, eager)
             own = sorted({tc.column for tc in needed if tc.table == via.one_table} | {via.one_column})
             columns.update({TableCol(via.one_table, c): self.names.of_column(via.one_table, c) for c in own})
             dimension = Dimension(via, self._scan(via.one_table, own, False))
@@ -174,6 +178,14 @@ class RowSets:
                     seen.add(name)
             rr.node = Distinct(Project(rr.node, tuple(items)))
         return rr
+
+    def _base(
+        self, rows: RowSet, needed: set[TableCol], always: bool, eager: EagerParts | None
+    ) -> tuple[PlanNode, dict[TableCol, str]]:
+        """The rows of the row set's table (or its partial rows) joined to the ``needed`` tables."""
+        if eager is None:
+            return self.base_rows(rows.table, rows.with_empty, needed, always)
+        return self._with_ancestors(eager.node, rows.table, needed)
 
     def _with_params(
         self,
@@ -413,19 +425,36 @@ class RowSets:
             return (table,)
         return tuple(spec.source.split("."))
 
-    def eager_relation(self, rows: RowSet, exprs: list[Scalar]) -> tuple[RowsRelation, list[Scalar]] | None:
+    def eager_relation(
+        self, rows: RowSet, exprs: list[Scalar], frame_rel: PlanNode | None = None
+    ) -> tuple[RowsRelation, list[Scalar]] | None:
         """The row set pre-aggregated by the keys it points with (see ``eager``), joined to the
-        dimensions it reads, with ``exprs`` over the joined partial rows."""
+        dimensions it reads, with ``exprs`` over the joined partial rows. Filters on dimensions
+        that read values of the frame ``frame_rel`` are applied to the joined partial rows
+        through parameters, as ``rows_relation`` does for whole rows."""
 
         def scan(table: str, cols: list[str]) -> Scan:
             items = tuple((self.names.of_column(table, c), c) for c in cols)
             return Scan(table, self._relation(table), items, label=table)
 
         parts = eager_parts(
-            self.model, rows, exprs, self.names.of_column, scan, lambda f, cols: _local_filter(f, cols, {})
+            self.model,
+            rows,
+            exprs,
+            self.names.of_column,
+            scan,
+            lambda f, cols: _local_filter(f, cols, {}),
+            correlated=frame_rel is not None,
         )
         if parts is None:
             return None
+        (key,) = parts.group
+        if any(_is_correlated(f) for f in rows.filters):
+            assert frame_rel is not None
+            finals_read = set().union(*(table_columns(f) for f in parts.finals))
+            rr = self.rows_relation(rows, frame_rel, [], finals_read, eager=parts)
+            rr.pre_aggregated_by = str(key)
+            return rr, [rr.local(f) for f in parts.finals]
         needed = set(parts.group)
         for final in parts.finals:
             needed |= table_columns(final)
@@ -445,7 +474,6 @@ class RowSets:
         def local(expr: Scalar) -> Scalar:
             return transform(expr, lambda n: Col(columns[n]) if isinstance(n, TableCol) else None)
 
-        (key,) = parts.group
         return RowsRelation(node, keys, columns, pre_aggregated_by=str(key)), [local(f) for f in parts.finals]
 
 
@@ -476,6 +504,11 @@ def _rejects_nulls(predicate: Scalar) -> bool:
         case LikeTest(operand=TableCol(), negated=False):
             return True
     return False
+
+
+def _is_correlated(f: Filter) -> bool:
+    """Whether ``f`` selects rows through parameters of the frame (not a grouping key)."""
+    return isinstance(f, ShiftFilter) or bool(f.frame_columns() and not isinstance(f, EqFilter))
 
 
 def plain_equality(f: Filter) -> tuple[TableCol, Scalar] | None:
