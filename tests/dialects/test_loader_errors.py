@@ -35,6 +35,7 @@ quirks:
   count_distinct_columns: single
   null_safe_equality: IS NOT DISTINCT FROM
   greatest_least_nulls: ignored
+  rounding: away_from_zero
 """
 
 
@@ -80,7 +81,7 @@ def test_an_unknown_quirk_is_refused_with_the_closest_name(tmp_path: Path) -> No
     error = error_of(path)
     assert error.message.startswith("'nulls_ordering' is not a setting of quirks")
     assert error.hint == "did you mean 'null_ordering'?"
-    assert error.span.line == 22
+    assert error.span.line == 23  # the line after VALID's 22 lines
 
 
 def test_an_unknown_sqlglot_dialect_suggests_the_closest(tmp_path: Path) -> None:
@@ -106,7 +107,7 @@ def test_readback_repairs_need_a_roundtrip_dialect(tmp_path: Path) -> None:
     text = VALID.replace("engine: roundtrip", "engine: postgres") + "readback_repairs: [float_is_double]\n"
     error = error_of(write(tmp_path, text))
     assert error.message == "readback_repairs apply only to a dialect whose engine is roundtrip"
-    assert error.span.line == 22
+    assert error.span.line == 23  # the line after VALID's 22 lines
 
 
 def test_an_unknown_repair_is_refused(tmp_path: Path) -> None:

@@ -17,6 +17,21 @@ ROUNDTRIP = "roundtrip"
 #: A function-name quirk with this value: the dialect has no such function.
 NO_FUNCTION = "none"
 
+#: What sqlglot's ``ROUND(x, n)`` of a double does with a value halfway between two results:
+#: ties away from zero on the double x * 10^n (the language's ``round``: 0.015 * 100 is 1.5 in
+#: doubles, so ``round(0.015, 2)`` is 0.02); away from zero on the exact binary value of x (0.015
+#: is stored a little below, so 0.01); away from zero on the double's shortest decimal text
+#: (``ROUND(1.005, 2)`` is 1.01, where 1.005 * 100 is 100.4999... and the language gives 1.0); away
+#: from zero, the documentation not saying on which value; to the even neighbour; not stated.
+ROUNDING_VALUES = (
+    "away_from_zero_scaled", "away_from_zero_binary", "away_from_zero_decimal", "away_from_zero",
+    "to_even", "not_stated",
+)
+
+#: The one rounding whose ``ROUND`` is the language's ``round`` exactly (section "Values and nulls"
+#: of docs/semantics-choices.md); every other engine is given an explicit form.
+LANGUAGE_ROUNDING = "away_from_zero_scaled"
+
 #: Each quirk and the values it may take; None: a function name (or ``none``) or a written form.
 QUIRK_VALUES: dict[str, tuple[str, ...] | None] = {
     "division_by_zero": ("error", "null_result", "infinity"),
@@ -37,6 +52,7 @@ QUIRK_VALUES: dict[str, tuple[str, ...] | None] = {
     "count_distinct_columns": ("several", "single"),
     "null_safe_equality": None,
     "greatest_least_nulls": ("ignored", "propagated"),
+    "rounding": ROUNDING_VALUES,
 }
 
 #: What each quirk is about, for ``measureport dialects NAME`` and the docs.
@@ -57,6 +73,7 @@ QUIRK_MEANINGS: dict[str, str] = {
     "count_distinct_columns": "COUNT(DISTINCT a, b) over several columns",
     "null_safe_equality": "how equality that treats two nulls as equal is written",
     "greatest_least_nulls": "what GREATEST and LEAST do with a null argument",
+    "rounding": "what ROUND(x, n) of a double does with a tie, as sqlglot writes it",
 }
 
 #: Repairs the round-trip applies to a statement read back with sqlglot before running it on
@@ -103,6 +120,7 @@ class Quirks:
     count_distinct_columns: str
     null_safe_equality: str
     greatest_least_nulls: str
+    rounding: str
 
     def value(self, quirk: str) -> str:
         """The value of the quirk named ``quirk``."""

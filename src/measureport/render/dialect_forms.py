@@ -21,6 +21,7 @@ from collections.abc import Callable
 from sqlglot import exp
 
 from measureport.dialects import DialectProfile
+from measureport.dialects.profile import LANGUAGE_ROUNDING
 from measureport.render.scalars import operand
 
 DatePart = str
@@ -54,6 +55,15 @@ def _sqlglot_writes(dialect: str, node_type: type[exp.Expression], function: str
     return text.upper().startswith(function.upper() + "(")
 
 
+@functools.cache
+def _sqlglot_skips_nulls(dialect: str) -> bool:
+    """True when sqlglot writes a null-skipping GREATEST in ``dialect`` differently from the plain
+    call (``GREATEST_IGNORE_NULLS``, SQLite's ``MAX(COALESCE(...), ...)``): its own form is exact."""
+    arguments = {"this": exp.column("a"), "expressions": [exp.column("b")]}
+    skipping = exp.Greatest(**arguments, ignore_nulls=True).sql(dialect=dialect)
+    return skipping != exp.Greatest(**arguments).sql(dialect=dialect)
+
+
 class DialectForms:
     """The builders of one dialect: each takes operands already in the dialect's forms."""
 
@@ -78,10 +88,17 @@ class DialectForms:
         return "iso_text" if self.text_dates else "month_arithmetic"
 
     def round_style(self) -> str:
-        """``native`` on the DuckDB baseline, whose ROUND is the language's rounding; elsewhere
-        ``scaled_floor``: engines round ties to even (ClickHouse), round the decimal text of the
-        double (sqlglot's PostgreSQL form) or sum money differently before rounding."""
-        return "native" if self.profile.engine == "duckdb" else "scaled_floor"
+        """``native`` where the profile's ``rounding`` is the language's (half away from zero on
+        the binary value); elsewhere ``scaled_floor``: engines that round ties to even, round the
+        decimal text of the double, or whose documentation does not say how ties go."""
+        return "native" if self.profile.quirks.rounding == LANGUAGE_ROUNDING else "scaled_floor"
+
+    def extreme_style(self) -> str:
+        """``native`` where the engine's GREATEST/LEAST skip nulls, or where sqlglot writes a form
+        of its own that does; else ``coalesced``: each argument falls back on the others."""
+        if self.profile.quirks.greatest_least_nulls == "ignored":
+            return "native"
+        return "native" if _sqlglot_skips_nulls(self.profile.sqlglot) else "coalesced"
 
     def date_part_style(self) -> str:
         """``native`` or ``iso_text``."""
@@ -120,6 +137,10 @@ class DialectForms:
     def int_div(self, left: exp.Expression, right: exp.Expression) -> exp.Expression:
         """Integer division of two non-negative integers."""
         return _INT_DIV_STYLES[self.int_div_style()](self, left, right)
+
+    def extreme(self, node: exp.Greatest | exp.Least) -> exp.Expression:
+        """A GREATEST or LEAST that skips null arguments (null only when all are), as the language's."""
+        return _EXTREME_STYLES[self.extreme_style()](self, node)
 
 
 # --- make_date styles ----------------------------------------------------------------------------
@@ -259,6 +280,29 @@ _ROUND_STYLES: dict[str, Callable[[DialectForms, Node, Node], Node]] = {
     "scaled_floor": _round_scaled_floor,
 }
 
+# --- greatest / least styles --------------------------------------------------------------------
+
+
+def _extreme_native(forms: DialectForms, node: exp.Greatest | exp.Least) -> exp.Expression:
+    return node
+
+
+def _extreme_coalesced(forms: DialectForms, node: exp.Greatest | exp.Least) -> exp.Expression:
+    # GREATEST(COALESCE(a, b, c), COALESCE(b, c, a), COALESCE(c, a, b)): a null argument takes the
+    # value of a later non-null one, which changes no extreme; all are null only when every one is.
+    arguments = [node.this, *node.expressions]
+    rotations = [arguments[i:] + arguments[:i] for i in range(len(arguments))]
+    fallbacks = [
+        exp.Coalesce(this=first.copy(), expressions=[a.copy() for a in rest]) for first, *rest in rotations
+    ]
+    return type(node)(this=fallbacks[0], expressions=fallbacks[1:])
+
+
+_EXTREME_STYLES: dict[str, Callable[[DialectForms, exp.Greatest | exp.Least], exp.Expression]] = {
+    "native": _extreme_native,
+    "coalesced": _extreme_coalesced,
+}
+
 # --- the table from node type to rendering -------------------------------------------------------
 
 
@@ -282,6 +326,11 @@ def _round(forms: DialectForms, node: exp.Expression) -> exp.Expression:
     return forms.round(node.this, node.args.get("decimals") or _number(0))
 
 
+def _extreme(forms: DialectForms, node: exp.Expression) -> exp.Expression:
+    assert isinstance(node, exp.Greatest | exp.Least)
+    return forms.extreme(node) if node.args.get("ignore_nulls") else node
+
+
 #: Each node type that some dialect writes differently, and its rendering.
 TRANSFORMS: dict[type[exp.Expression], Callable[[DialectForms, exp.Expression], exp.Expression]] = {
     exp.DateFromParts: _from_parts,
@@ -291,6 +340,8 @@ TRANSFORMS: dict[type[exp.Expression], Callable[[DialectForms, exp.Expression], 
     exp.Day: _date_part,
     exp.IntDiv: _int_div,
     exp.Round: _round,
+    exp.Greatest: _extreme,
+    exp.Least: _extreme,
 }
 
 
