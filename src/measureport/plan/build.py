@@ -19,7 +19,15 @@ from measureport.plan.context import (
     TableCol,
     table_columns,
 )
-from measureport.plan.frames import AggRequest, Frame, IterRequest, RankRequest, Request, RowSet
+from measureport.plan.frames import (
+    AggRequest,
+    Frame,
+    GridRankRequest,
+    IterRequest,
+    RankRequest,
+    Request,
+    RowSet,
+)
 from measureport.plan.lower import Lowering
 from measureport.plan.names import Names
 from measureport.plan.nodes import (
@@ -175,6 +183,8 @@ class Builder:
                     relation = self._join_iteration(frame, relation, before, request)
                 elif isinstance(request, RankRequest):
                     relation = self._join_rank(frame, relation, before, request)
+                elif isinstance(request, GridRankRequest):
+                    relation = self._grid_rank(relation, request)
         return relation
 
     def _join_back(
@@ -323,6 +333,21 @@ class Builder:
         )
         frame_keys = [(name, Col(name)) for name in frame.key]
         return self._join_back(relation, mine, frame_keys, [(request.out, "rk")])
+
+    def _grid_rank(self, relation: PlanNode, request: GridRankRequest) -> PlanNode:
+        partition = tuple(Col(name) for name in request.partition)
+        ranked = DenseRank(relation, request.out, partition, request.value, request.ascending, label="rank")
+        shared = "the other grid columns" if partition else "nothing (all rows)"
+        self.strategies.append(
+            Strategy(
+                request,
+                "window: dense rank of the grid's own values over the grid rows sharing"
+                f" {shared}; the grid rows are the members, so no second scan",
+                [request],
+                self.lowering.askers,
+            )
+        )
+        return ranked
 
     def _child_base(self, child: Frame, parent_rel: PlanNode) -> PlanNode:
         """The parent frame's rows, each repeated for its current rows in ``child``."""

@@ -95,6 +95,22 @@ class RankRequest(Request):
 
 
 @dataclass(eq=False)
+class GridRankRequest(Request):
+    """A rank computed over the grid's own rows: the dense rank of ``value`` (the ranked value
+    where the grid row is a member, else null) among the grid rows sharing the ``partition``
+    columns."""
+
+    out: str
+    value: Scalar
+    ascending: bool
+    partition: tuple[str, ...]
+    description: str = ""
+
+    def frame_columns(self) -> set[str]:
+        return columns_used(self.value) | set(self.partition)
+
+
+@dataclass(eq=False)
 class Frame:
     """One frame of the lowering (see the module text).
 
@@ -120,8 +136,9 @@ class Frame:
     body_columns: set[str] = field(default_factory=set)
     owned: set[str] = field(default_factory=set)
     label: str = ""
-    # For the grid frame: the model column behind each grid column.
+    # For the grid frame: the model column behind each grid column, and the report filters.
     grid_columns: dict[str, tuple[str, str]] = field(default_factory=dict)
+    report: tuple[Filter, ...] = ()
 
     def ancestors(self) -> list[Frame]:
         """This frame and its parents, innermost first."""

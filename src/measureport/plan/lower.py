@@ -25,7 +25,15 @@ from measureport.model.graph import closest_common_source, reachable
 from measureport.model.schema import Model
 from measureport.plan import dates
 from measureport.plan.context import CondFilter, Context, EqFilter, Filter, ShiftFilter, TableCol
-from measureport.plan.frames import AggRequest, Frame, FrameKind, IterRequest, RankRequest, RowSet
+from measureport.plan.frames import (
+    AggRequest,
+    Frame,
+    FrameKind,
+    GridRankRequest,
+    IterRequest,
+    RankRequest,
+    RowSet,
+)
 from measureport.plan.names import Names
 from measureport.plan.scalar import (
     AggCall,
@@ -33,6 +41,7 @@ from measureport.plan.scalar import (
     Arith,
     BetweenValues,
     Case,
+    Col,
     Compare,
     Const,
     Func,
@@ -390,8 +399,12 @@ class Lowering:
         how_many = self.request_aggregate(
             st.frame, here, Arith("+", AggCall("count_distinct", member), nulls), st, f"members of {member}"
         )
-        current = self.request_aggregate(st.frame, here, AggCall("min", member), st, f"member of {member}")
+        is_one = Compare("=", how_many, Const(1))
         cleared = st.ctx.without_columns(table, [column])
+        over_grid = self._rank_over_grid(node, st, cleared, is_one)
+        if over_grid is not None:
+            return Case(((is_one, over_grid),))
+        current = self.request_aggregate(st.frame, here, AggCall("min", member), st, f"member of {member}")
         child = self.new_frame(
             "rank",
             st.frame,
@@ -408,7 +421,46 @@ class Lowering:
         child.body_columns |= columns_used(value) | set(st.frame.key) | {current.name, member_col.name}
         out = self.own(st.frame, self.names.fresh("rank"))
         st.frame.requests.append(RankRequest(out, child, value, node.ascending, current.name, _text(node)))
-        return Case(((Compare("=", how_many, Const(1)), Col(out)),))
+        return Case(((is_one, Col(out)),))
+
+    def _rank_over_grid(self, node: ast.Rank, st: State, cleared: Context, is_one: Scalar) -> Scalar | None:
+        """The rank as a window over the grid's own rows, where that is exact; else None.
+
+        It is exact when the rank is taken in a grid cell's own context over one of its grid
+        columns ``g``, on table ``T``: the members are then the values of ``g`` visible under the
+        context less its filter on ``g``, which keeps every report filter on the tables ``T``
+        reaches and the cell's equalities on ``T``'s other grid columns; so every member is a
+        grid row among those sharing the other grid columns, and that context is the same on all
+        of them. A grid row is a member exactly where one member is visible in its cell
+        (``is_one``), and its value is the ranked expression in its cell's context."""
+        frame = st.frame
+        if frame.kind != "grid" or st.scope is not None:
+            return None
+        table, column = node.over.table, node.over.column
+        names = [n for n, tc in frame.grid_columns.items() if tc == (table, column)]
+        if len(names) != 1:
+            return None
+        (mine,) = names
+        own = EqFilter(table, column, Col(mine))
+        if [f for f in st.ctx.filters if f.table == table and column in f.columns] != [own]:
+            return None
+        for f in cleared.filters:
+            if f.frame_columns() and not _is_grid_equality(f, frame):
+                return None
+        needed = set(frame.report) & set(self.rowset(Context(frame.report), table, False).filters)
+        needed |= {
+            EqFilter(t, c, Col(n)) for n, (t, c) in frame.grid_columns.items() if t == table and n != mine
+        }
+        if not needed <= set(cleared.filters):
+            return None
+        valued = Context(cleared.filters).replace(own)
+        value = self.lower(node.expr, State(frame, valued, st.locals, None, st.measure))
+        out = self.own(frame, self.names.fresh("rank"))
+        partition = tuple(n for n in frame.key if n != mine)
+        frame.requests.append(
+            GridRankRequest(out, Case(((is_one, value),)), node.ascending, partition, _text(node))
+        )
+        return Col(out)
 
     # --- given ------------------------------------------------------------------------------------
 
@@ -466,6 +518,13 @@ class Lowering:
             first = dates.trailing_start(last, mod.count, mod.unit)
         window = And((Compare(">=", day, first), Compare("<=", day, last)))
         return cleared.add(CondFilter(table, frozenset({column}), window))
+
+
+def _is_grid_equality(f: Filter, grid: Frame) -> bool:
+    """Whether ``f`` is a grid cell's equality on one of its grid columns."""
+    if not isinstance(f, EqFilter) or f.binding is not None or not isinstance(f.value, Col):
+        return False
+    return grid.grid_columns.get(f.value.name) == (f.table, f.column)
 
 
 def _row_columns(expr: ast.Expr) -> list[ast.ColumnRef]:

@@ -110,6 +110,7 @@ def _level_part(
     grid_names = [lowering.own(grid, lowering.names.fresh(f"{c.table}_{c.column}")) for c in by]
     grid.key = tuple(grid_names)
     grid.grid_columns = {n: (c.table, c.column) for c, n in zip(by, grid_names, strict=True)}
+    grid.report = report.filters
     cell = report.add(*(EqFilter(c.table, c.column, Col(n)) for c, n in zip(by, grid_names, strict=True)))
     values = [lowering.measure(m, cell, grid) for m in query.measures]
     for measure, value in zip(query.measures, values, strict=True):
