@@ -17,7 +17,7 @@ from sqlglot import exp
 
 from measureport.plan import nodes as N
 from measureport.plan.scalar import Exists, Scalar
-from measureport.render.scalars import ScalarRenderer
+from measureport.render.scalars import ScalarRenderer, sql_type
 
 
 @dataclass
@@ -40,6 +40,15 @@ def _ident(name: str) -> exp.Identifier:
 
 def _alias(name: str) -> exp.TableAlias:
     return exp.TableAlias(this=_ident(name))
+
+
+def _column(name: str, table: str) -> exp.Column:
+    return exp.Column(this=_ident(name), table=_ident(table))
+
+
+def _named(value: exp.Expression, name: str) -> exp.Alias:
+    """``value AS "name"``, taking ``value`` itself into the tree."""
+    return exp.Alias(this=value, alias=_ident(name))
 
 
 class StatementRenderer:
@@ -95,7 +104,7 @@ class StatementRenderer:
     ) -> exp.Select:
         if not items:
             items = [("__one", exp.Literal.number("1"))]
-        select = exp.Select(expressions=[exp.alias_(value, name, quoted=True) for name, value in items])
+        select = exp.Select(expressions=[_named(value, name) for name, value in items])
         select = select.from_(piece.source, copy=False)
         for join in piece.joins:
             select = select.join(join, copy=False)
@@ -124,7 +133,7 @@ class StatementRenderer:
             table = exp.Table(this=parts[-1], db=parts[-2] if len(parts) > 1 else None, alias=_alias(alias))
             if len(parts) > 2:
                 table.set("catalog", parts[-3])
-            return Piece(table, {name: exp.column(col, alias, quoted=True) for name, col in node.items})
+            return Piece(table, {name: _column(col, alias) for name, col in node.items})
         if isinstance(node, N.Filter):
             piece = self.piece(node.input)
             piece.where.append(self._scalars(piece).render(node.predicate))
@@ -145,7 +154,7 @@ class StatementRenderer:
             source: exp.Expression = relation
         else:
             source = exp.Table(this=relation.this.copy(), alias=_alias(alias))
-        return Piece(source, {c: exp.column(c, alias, quoted=True) for c in columns})
+        return Piece(source, {c: _column(c, alias) for c in columns})
 
     def _join(self, node: N.Join) -> Piece:
         left = self.piece(node.left)
@@ -227,10 +236,10 @@ class StatementRenderer:
                 exp.Subquery(this=union, alias=_alias(self._name("u"))), copy=False
             )
         if isinstance(node, N.NullRow):
-            items = [(name, exp.cast(exp.Null(), exp.DataType.build(sql))) for name, sql in node.items]
-            return exp.Select(expressions=[exp.alias_(v, n, quoted=True) for n, v in items])
+            items = [(name, exp.cast(exp.Null(), sql_type(sql), copy=False)) for name, sql in node.items]
+            return exp.Select(expressions=[_named(v, n) for n, v in items])
         if isinstance(node, N.OneRow):
-            return exp.Select(expressions=[exp.alias_(exp.Literal.number("1"), "__one", quoted=True)])
+            return exp.Select(expressions=[_named(exp.Literal.number("1"), "__one")])
         if isinstance(node, N.Scan | N.Filter | N.Project | N.Join):
             return self._close_piece(self._open_piece(node), node)
         raise NotImplementedError(f"no SQL for plan node {type(node).__name__}")

@@ -8,6 +8,7 @@ parentheses of its own to a hand-built tree. The language's ``/`` is
 from __future__ import annotations
 
 import datetime as dt
+import functools
 import math
 from collections.abc import Callable, Mapping
 
@@ -32,6 +33,21 @@ _KIND_TYPES = {"number": "DOUBLE", "text": "TEXT", "date": "DATE", "boolean": "B
 _LEAVES = (exp.Column, exp.Literal, exp.Null, exp.Boolean, exp.Func, exp.Paren)
 
 
+@functools.cache
+def _parsed_type(sql: str) -> exp.DataType:
+    return exp.DataType.build(sql)
+
+
+def sql_type(sql: str) -> exp.DataType:
+    """A fresh SQL type node for the type written ``sql`` (each text is parsed once)."""
+    return _parsed_type(sql).copy()
+
+
+def cast(node: exp.Expression, sql: str) -> exp.Cast:
+    """``CAST(node AS sql)``, taking ``node`` itself into the tree (no copy of it is made)."""
+    return exp.cast(node, sql_type(sql), copy=False)
+
+
 def operand(node: exp.Expression) -> exp.Expression:
     """``node`` wrapped in parentheses unless it is a leaf or a function call."""
     if isinstance(node, _LEAVES):
@@ -43,7 +59,7 @@ def literal(value: S.ConstValue, kind: str | None = None) -> exp.Expression:
     """A SQL literal for a Python value; numbers are formatted here, never taken as text."""
     if value is None:
         if kind in _KIND_TYPES:
-            return exp.cast(exp.Null(), exp.DataType.build(_KIND_TYPES[kind]))
+            return cast(exp.Null(), _KIND_TYPES[kind])
         return exp.Null()
     if isinstance(value, bool):
         return exp.Boolean(this=value)
@@ -55,7 +71,7 @@ def literal(value: S.ConstValue, kind: str | None = None) -> exp.Expression:
         number = exp.Literal.number(repr(abs(value)))
         return number if value >= 0 else exp.Neg(this=number)
     if isinstance(value, dt.date):
-        return exp.cast(exp.Literal.string(value.isoformat()), exp.DataType.build("DATE"))
+        return cast(exp.Literal.string(value.isoformat()), "DATE")
     return exp.Literal.string(value)
 
 
@@ -90,11 +106,11 @@ class ScalarRenderer:
         return literal(node.value, node.kind)
 
     def _TypedNull(self, node: S.TypedNull) -> exp.Expression:
-        return exp.cast(exp.Null(), exp.DataType.build(node.sql))
+        return cast(exp.Null(), node.sql)
 
     def _Arith(self, node: S.Arith) -> exp.Expression:
         if node.op == "/":
-            numerator = exp.cast(self.render(node.left), exp.DataType.build("DOUBLE"))
+            numerator = cast(self.render(node.left), "DOUBLE")
             divisor = exp.Nullif(this=self.render(node.right), expression=exp.Literal.number("0"))
             return exp.Div(this=numerator, expression=divisor)
         return _ARITH[node.op](this=self._op(node.left), expression=self._op(node.right))
@@ -154,7 +170,7 @@ class ScalarRenderer:
             return exp.Abs(this=args[0])
         if node.name == "round":
             digits = args[1] if len(args) > 1 else exp.Literal.number("0")
-            return exp.Round(this=exp.cast(args[0], exp.DataType.build("DOUBLE")), decimals=digits)
+            return exp.Round(this=cast(args[0], "DOUBLE"), decimals=digits)
         if node.name == "least":
             return exp.Least(this=args[0], expressions=args[1:], ignore_nulls=True)
         return exp.Greatest(this=args[0], expressions=args[1:], ignore_nulls=True)
@@ -170,7 +186,7 @@ class ScalarRenderer:
 
     def _AddDays(self, node: S.AddDays) -> exp.Expression:
         moved = exp.DateAdd(this=self._op(node.operand), expression=self._op(node.days), unit=exp.var("DAY"))
-        return exp.cast(moved, exp.DataType.build("DATE"))
+        return cast(moved, "DATE")
 
     def _LastDayOf(self, node: S.LastDayOf) -> exp.Expression:
         return exp.LastDay(this=self.render(node.operand))
@@ -189,7 +205,7 @@ class ScalarRenderer:
         if node.func == "sum":
             return exp.Sum(this=arg)
         if node.func == "mean":
-            return exp.Avg(this=exp.cast(arg, exp.DataType.build("DOUBLE")))
+            return exp.Avg(this=cast(arg, "DOUBLE"))
         if node.func == "min":
             return exp.Min(this=arg)
         if node.func == "max":

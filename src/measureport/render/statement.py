@@ -23,13 +23,19 @@ class RenderedStatement:
     hidden_last: bool = False
 
     def sql(self, dialect: str = "duckdb", pretty: bool = True, everything: bool = False) -> str:
-        """The statement's text in ``dialect``; a construct the dialect cannot express raises."""
+        """The statement's text in ``dialect``; a construct the dialect cannot express raises.
+
+        The tree is written without the copy sqlglot makes by default (a copy costs as much as
+        the writing). What a dialect's writer rewrites in place (such as the cast some put on
+        the left of a division not known to be of floats) it also writes: the text is the
+        same, written once or again, as from a copy (tests/render/test_statement_text.py)."""
         columns = self.expression.expressions
         if self.hidden_last and not everything:
             self.expression.set("expressions", columns[:-1])
         try:
             return self.expression.sql(
-                dialect=dialect, identify=True, pretty=pretty, unsupported_level=ErrorLevel.RAISE
+                dialect=dialect, identify=True, pretty=pretty, unsupported_level=ErrorLevel.RAISE,
+                copy=False,
             )
         finally:
             self.expression.set("expressions", columns)
