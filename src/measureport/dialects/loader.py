@@ -1,4 +1,5 @@
-"""Reading and validating the dialect profiles in the repository's ``dialects/`` folder.
+"""Reading and validating the dialect profiles: the repository's ``dialects/`` folder, shipped as
+package data (``measureport/dialects/profiles``).
 
 Every mistake in a profile is a :class:`MeasureportError` pointing at ``file:line:col`` of the
 value it is about, so adding a dialect is adding a file and fixing what the messages say.
@@ -7,6 +8,7 @@ value it is about, so adding a dialect is adding a file and fixing what the mess
 from __future__ import annotations
 
 import functools
+import importlib.resources
 import re
 from collections.abc import Sequence
 from pathlib import Path
@@ -29,8 +31,16 @@ from measureport.dialects.profile import (
 from measureport.errors import MeasureportError, Span
 from measureport.model.yamlnodes import NULL_TAG, YamlSource, did_you_mean, is_null, plain_list
 
-#: The folder of the profiles: ``dialects/`` at the top of the repository.
-PROFILES_DIR = Path(__file__).resolve().parents[3] / "dialects"
+
+def shipped_profiles_dir() -> Path:
+    """The folder of the profiles shipped with measureport: the package data folder
+    ``measureport/dialects/profiles`` (in a checkout, a link to the top-level ``dialects/``)."""
+    shipped = importlib.resources.files("measureport.dialects") / "profiles"
+    return Path(str(shipped)).resolve()
+
+
+#: The folder of the profiles: ``dialects/`` at the top of the repository, shipped as package data.
+PROFILES_DIR = shipped_profiles_dir()
 
 _SETTINGS = (
     "name", "title", "sqlglot", "engine", "requires", "float_type", "quirks",
