@@ -26,6 +26,7 @@ measure per_stop = mean(riders for each stops)
 measure doubled = sum(boardings.riders * 2 for each boardings)
 measure stop_rank = rank(riders over stops.name)
 measure nested_minus = riders - (boardings_n - faults)
+measure busiest_day = max(riders for each days.day)
 """
 
 
@@ -258,3 +259,14 @@ def test_every_identifier_is_quoted(tram: Differential) -> None:
     tree = parsed(tram, ["line_share", "ytd", "per_stop"], ["stops.name"])
     identifiers = list(tree.find_all(exp.Identifier))
     assert identifiers and all(i.args.get("quoted") for i in identifiers)
+
+
+def test_empty_members_are_told_from_the_iteration_aggregate_over_every_row(tram: Differential) -> None:
+    # The busiest day's riders per line: the boardings are aggregated by day and line over every
+    # row, and that aggregate also counts the rows whose stop or day finds no row; the grid's
+    # empty line and the iterated days' empty member are told from those counts, so the
+    # statement reads boardings once (not once more per existence test).
+    result = tram.check(["busiest_day"], ["lines.name"])
+    # Red: 14 on 2024-02-02 (the twins); Blue: 4; the empty line: 6 on 2025-03-01.
+    assert result.rows == [("Blue", 4), ("Red", 14), (None, 6)]
+    assert tram.engine.compile(tram.query(["busiest_day"], ["lines.name"])).scans["boardings"] == 1

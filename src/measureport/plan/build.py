@@ -91,6 +91,7 @@ class Builder:
         self._stage_groups: dict[tuple[int, int], StageGroups] = {}
         self._aggregates: dict[tuple[int, RowSet, tuple[int, ...]], BuiltAggregate] = {}
         self._counted: set[str] = set()
+        self._counting = False
         self.strategies: list[Strategy] = []
         self.notes: list[str] = []
 
@@ -159,13 +160,30 @@ class Builder:
                 )
                 if note not in self.notes:
                     self.notes.append(note)
-        by_stage = self._by_stage(frame)
-        self._counted = _dimensions_tested(self.model, frame, self.rowsets.always_empty)
-        if 1 in by_stage:
-            for rows, requests in self._groups_of(frame, 1, by_stage[1]).aggregates.items():
-                if _covers_every_row(rows):
-                    self._aggregate(frame, None, rows, requests)
+        built = self._frames_built(frame)
+        asked = {t for t, _ in frame.grid_columns.values() if t not in self.rowsets.always_empty}
+        asked |= {f.rows.table for f in built if f.rows is not None and f.rows.with_empty}
+        self._counted = _dimensions_tested(self.model, asked)
+        self._counting = True
+        for each in built:
+            by_stage = self._by_stage(each)
+            if 1 not in by_stage:
+                continue
+            for rows, requests in self._groups_of(each, 1, by_stage[1]).aggregates.items():
+                if _covers_every_row(rows) and not any(columns_used(r.value) for r in requests):
+                    self._aggregate(each, None, rows, requests)
+        self._counting = False
         return self.build_frame(frame, grid())
+
+    def _frames_built(self, frame: Frame) -> list[Frame]:
+        """``frame`` and the iteration and rank frames inside it that become relations of their own."""
+        found = [frame]
+        for request in frame.requests:
+            nested = isinstance(request, IterRequest) and self._direct(request) is None
+            if nested or isinstance(request, RankRequest):
+                assert isinstance(request, IterRequest | RankRequest)
+                found += self._frames_built(request.child)
+        return found
 
     def build_frame(self, frame: Frame, base: PlanNode) -> PlanNode:
         """``base`` with a column for every request of ``frame``."""
@@ -238,7 +256,7 @@ class Builder:
         carried = sorted(set().union(*(columns_used(r.value) for r in requests)))
         wanted = set().union(*(table_columns(r.value) for r in requests))
         counted = []
-        if frame.kind == "grid" and _covers_every_row(rows):
+        if self._counting and _covers_every_row(rows):
             counted = [r for r in self.model.relationships_from(rows.table) if r.one_table in self._counted]
             wanted |= {TableCol(r.one_table, r.one_column) for r in counted}
         exprs = [r.value for r in requests] + [
@@ -427,18 +445,18 @@ class BuiltAggregate:
 
 
 def _covers_every_row(rows: RowSet) -> bool:
-    """Whether a row set keeps every row of its table: no filter but grid cells (whose groups
-    then partition the rows)."""
-    plain = all(isinstance(f, EqFilter) and f.binding is None for f in rows.filters)
+    """Whether a row set keeps every row of its table: no filter but grid cells and bound
+    current rows (whose groups then partition the rows)."""
+    plain = all(isinstance(f, EqFilter) for f in rows.filters)
     return plain and rows.where is None and rows.distinct is None and not rows.with_empty
 
 
-def _dimensions_tested(model: Model, grid: Frame, untested: set[str]) -> set[str]:
-    """The dimensions whose empty member's existence a grid may ask about: the grid's tables
-    (except ``untested`` ones) and, below them, every dimension pointing at one of those (its
-    empty member points on)."""
+def _dimensions_tested(model: Model, asked: set[str]) -> set[str]:
+    """The dimensions whose empty member's existence a query may ask about: the ``asked`` tables
+    (the grid's, the iterated ones) and, below them, every dimension pointing at one of those
+    (its empty member points on)."""
     found: set[str] = set()
-    pending = [t for t, _ in grid.grid_columns.values() if t not in untested]
+    pending = sorted(asked)
     dims = {r.one_table for r in model.relationships}
     while pending:
         table = pending.pop()
