@@ -13,6 +13,7 @@ import sqlglot
 from sqlglot import exp
 
 from measureport.dialects import NO_FUNCTION, DialectProfile, load_profile
+from measureport.dialects.profile import LANGUAGE_ROUNDING
 
 from .conftest import DEMO_VIEWS, DIALECTS, calls, compiled_view, read_back
 
@@ -317,3 +318,17 @@ def test_sqlglot_writes_a_replacing_view_as_the_profile_says(dialect: str) -> No
         "drop_then_create": "CREATE OR REPLACE VIEW",  # refused by the engine: the writer drops first
     }[profile(dialect).quirks.view_ddl]
     assert text.startswith(expected)
+
+
+@pytest.mark.parametrize("dialect", DIALECTS)
+def test_rounding_keeps_round_only_where_the_engine_rounds_as_the_language(dialect: str) -> None:
+    # The demo's views round (mean_duration, satisfaction_score). Where the profile's rounding is
+    # not the language's, ROUND is replaced by FLOOR(ABS(x) * 10^n + 0.5) with the sign put back.
+    trees = [read_back(dialect, view) for view in DEMO_VIEWS]
+    rounds = [node for tree in trees for node in tree.find_all(exp.Round)]
+    floors = [node for tree in trees for node in tree.find_all(exp.Floor)]
+    if profile(dialect).quirks.rounding == LANGUAGE_ROUNDING:
+        assert rounds
+    else:
+        assert not rounds and floors
+        assert all(isinstance(f.this.unnest(), exp.Add) for f in floors)
