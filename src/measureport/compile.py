@@ -14,6 +14,7 @@ from dataclasses import dataclass, field, replace
 
 from sqlglot import exp
 
+from measureport.collector import collection_paused
 from measureport.plan.printing import format_plan
 from measureport.plan.query_plan import LEVEL_COLUMN, QueryPlan, plan_query
 from measureport.query import Query
@@ -108,7 +109,8 @@ def compile_query(bound: BoundModel, query: Query, dialect: str = "duckdb") -> C
     """The SQL of ``query`` over ``bound``'s model in ``dialect``. A construct that cannot be
     lowered exactly raises :class:`measureport.errors.MeasureportError` naming the measure."""
     profile = dialect_profile(dialect)
-    planned = plan_query(bound, query)
-    neutral = render_statement(planned.executable, hidden_last=True)
-    rendered = replace(neutral, expression=localise(neutral.expression, profile))
+    with collection_paused():
+        planned = plan_query(bound, query)
+        neutral = render_statement(planned.executable, hidden_last=True)
+        rendered = replace(neutral, expression=localise(neutral.expression, profile))
     return CompiledQuery(query, profile.name, profile.sqlglot, bound, planned, rendered)
