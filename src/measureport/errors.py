@@ -11,6 +11,9 @@ from dataclasses import dataclass, field
 from pathlib import Path
 
 _SOURCES: dict[str, str] = {}
+# The lines of each source, split once: kept with the text they were split from, so a source
+# remembered anew under the same name is split anew.
+_LINES: dict[str, tuple[str, list[str]]] = {}
 
 
 def remember_source(file: str, text: str) -> None:
@@ -27,7 +30,11 @@ def source_line(file: str, line: int) -> str | None:
         except (OSError, UnicodeDecodeError):
             return None
         _SOURCES[file] = text
-    lines = text.splitlines()
+    split = _LINES.get(file)
+    if split is None or split[0] is not text:
+        split = (text, text.splitlines())
+        _LINES[file] = split
+    lines = split[1]
     if 1 <= line <= len(lines):
         return lines[line - 1]
     return None
