@@ -163,6 +163,9 @@ class Builder:
         built = self._frames_built(frame)
         asked = {t for t, _ in frame.grid_columns.values() if t not in self.rowsets.always_empty}
         asked |= {f.rows.table for f in built if f.rows is not None and f.rows.with_empty}
+        asked |= {
+            r.rows.table for f in built for r in f.requests if isinstance(r, AggRequest) and r.rows.with_empty
+        }
         self._counted = _dimensions_tested(self.model, asked)
         self._counting = True
         for each in built:
@@ -238,7 +241,9 @@ class Builder:
         rr = built.rows
         words = self._describe_rows(frame, rows, rr)
         for request in requests:
-            self.strategies.append(Strategy(request, words, list(requests), self.lowering.askers))
+            extra = self.lowering.explained.get(request.out)
+            said = f"{words}; {extra}" if extra else words
+            self.strategies.append(Strategy(request, said, list(requests), self.lowering.askers))
         outs = [(r.out, f"v{i}") for i, r in enumerate(requests)]
         frame_keys = [(f"k{i}", value) for i, (_, value) in enumerate(rr.keys)]
         return self._join_back(relation, built.node, frame_keys, outs, rr)

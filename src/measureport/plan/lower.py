@@ -35,6 +35,7 @@ from measureport.plan.frames import (
     RowSet,
 )
 from measureport.plan.names import Names
+from measureport.plan.partition_sums import PartitionSum, as_partition_sum
 from measureport.plan.scalar import (
     AggCall,
     And,
@@ -94,6 +95,8 @@ class Lowering:
         self.frames: dict[int, Frame] = {}
         # The query measures whose values each request feeds (filled by the query planner).
         self.askers: dict[int, list[str]] = {}
+        # Words for ``explain`` on requests that stand for a rewritten construct, by frame column.
+        self.explained: dict[str, str] = {}
 
     # --- frames --------------------------------------------------------------------------
 
@@ -372,6 +375,10 @@ class Lowering:
         inner = State(child, st.ctx, st.locals, child, st.measure)
         where = self.lower(iteration.where, inner) if iteration.where is not None else None
         argument = self.lower(node.argument, inner)
+        summed = as_partition_sum(child, node.function, argument, where)
+        if summed is not None:
+            parent.children.remove(child)
+            return self._partition_sum(summed, node, st)
         child.body_columns |= columns_used(argument) | set(parent.key)
         if where is not None:
             child.body_columns |= columns_used(where)
@@ -379,6 +386,28 @@ class Lowering:
         request = IterRequest(out, child, node.function, argument, where, _text(node))
         parent.requests.append(request)
         return Col(out)
+
+    def _partition_sum(self, summed: PartitionSum, node: ast.Aggregate, st: State) -> Scalar:
+        """An iteration that adds up its aggregate (see ``partition_sums``) as that aggregate
+        without the binding, and the number of iterated combinations where it needs it."""
+        text = _text(node)
+        total = self.request_aggregate(st.frame, summed.rows, summed.value, st, text)
+        assert isinstance(total, Col)
+        iterated = ", ".join(str(c) for c in summed.combinations.distinct or ())
+        divided = f", divided by the number of visible {iterated}" if summed.form == "mean_or_zero" else ""
+        self.explained[total.name] = (
+            f"the values per {iterated} add up to this one aggregate, so no aggregate per {iterated}{divided}"
+        )
+        if summed.form == "sum":
+            return total
+        count = self.request_aggregate(
+            st.frame, summed.combinations, AggCall("count_rows"), st, f"visible {iterated}"
+        )
+        some = Compare(">", count, Const(0, "number"))
+        zeroed = Func("coalesce", (total, Const(0, "number")))
+        if summed.form == "sum_or_zero":
+            return Case(((some, zeroed),))
+        return Case(((some, Arith("/", zeroed, count)),))
 
     def _lower_Single(self, node: ast.Single, st: State) -> Scalar:
         column = TableCol(node.column.table, node.column.column)
