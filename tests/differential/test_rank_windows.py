@@ -21,6 +21,7 @@ measure stop_rank_up = rank(riders over stops.name ascending)
 measure rank_across_lines = rank(riders over stops.name) given clear lines
 measure rank_in_zone_a = rank(riders over stops.name) given stops.zone = "A"
 measure line_rank = rank(riders over lines.name)
+measure stop_rank_or_zero = rank(coalesce(riders, 0) over stops.name)
 """
 
 
@@ -58,6 +59,26 @@ def test_rank_within_each_line(tram: Differential) -> None:
     # A window over the grid rows of each line (partitioned by the line alone), not a rank frame
     # of every stop per grid row (partitioned by both grid columns).
     assert rank_partitions(tram, ["stop_rank"], ["lines.name", "stops.name"]) == [1]
+    # The riders are null wherever no stop of the cell is visible, so they tell the members
+    # alone: boardings are read once, with no count of the visible stops and no test of
+    # whether stops have an empty member.
+    compiled = tram.engine.compile(tram.query(["stop_rank"], ["lines.name", "stops.name"]))
+    assert compiled.scans["boardings"] == 1
+
+
+def test_rank_of_a_value_that_is_never_null_counts_the_members(tram: Differential) -> None:
+    # coalesce(riders, 0) is 0 in cells without a stop, so the members are counted per cell:
+    # Red: Market 1, Harbour 2; Blue: Depot 1; the empty line: the empty stop 8 (1), Quarry 0
+    # (2). A cell of a line and a stop of another line has no member and no rank.
+    result = tram.check(["stop_rank_or_zero"], ["lines.name", "stops.name"])
+    assert result.rows == [
+        ("Blue", "Depot", 1),
+        ("Red", "Harbour", 2),
+        ("Red", "Market", 1),
+        (None, "Quarry", 2),
+        (None, None, 1),
+    ]
+    assert rank_partitions(tram, ["stop_rank_or_zero"], ["lines.name", "stops.name"]) == [1]
 
 
 def test_rank_ascending_within_each_zone(tram: Differential) -> None:
@@ -98,7 +119,8 @@ def test_rank_where_a_condition_replaces_a_grid_column_keeps_the_rank_frame(tram
 def test_ranks_agree_with_the_reference(
     tram: Differential, by: tuple[str, ...], where: tuple[str, ...]
 ) -> None:
-    tram.check(["stop_rank", "stop_rank_up", "rank_across_lines", "line_rank", "riders"], by, where)
+    measures = ["stop_rank", "stop_rank_up", "rank_across_lines", "line_rank", "stop_rank_or_zero", "riders"]
+    tram.check(measures, by, where)
 
 
 def test_ranks_with_totals_agree_with_the_reference(tram: Differential) -> None:

@@ -35,6 +35,7 @@ from measureport.plan.frames import (
     RowSet,
 )
 from measureport.plan.names import Names
+from measureport.plan.nullness import DeadCell
 from measureport.plan.partition_sums import PartitionSum, as_partition_sum
 from measureport.plan.scalar import (
     AggCall,
@@ -424,15 +425,18 @@ class Lowering:
         table, column = node.over.table, node.over.column
         member = TableCol(table, column)
         here = self.rowset(st.ctx, table, with_empty=True)
-        nulls = AggCall("max", Case(((IsNullTest(member), Const(1)),), Const(0)))
-        how_many = self.request_aggregate(
-            st.frame, here, Arith("+", AggCall("count_distinct", member), nulls), st, f"members of {member}"
-        )
-        is_one = Compare("=", how_many, Const(1))
+
+        def one_member() -> Scalar:
+            nulls = AggCall("max", Case(((IsNullTest(member), Const(1)),), Const(0)))
+            counted = Arith("+", AggCall("count_distinct", member), nulls)
+            how_many = self.request_aggregate(st.frame, here, counted, st, f"members of {member}")
+            return Compare("=", how_many, Const(1))
+
         cleared = st.ctx.without_columns(table, [column])
-        over_grid = self._rank_over_grid(node, st, cleared, is_one)
+        over_grid = self._rank_over_grid(node, st, cleared, one_member)
         if over_grid is not None:
-            return Case(((is_one, over_grid),))
+            return over_grid
+        is_one = one_member()
         current = self.request_aggregate(st.frame, here, AggCall("min", member), st, f"member of {member}")
         child = self.new_frame(
             "rank",
@@ -452,7 +456,9 @@ class Lowering:
         st.frame.requests.append(RankRequest(out, child, value, node.ascending, current.name, _text(node)))
         return Case(((is_one, Col(out)),))
 
-    def _rank_over_grid(self, node: ast.Rank, st: State, cleared: Context, is_one: Scalar) -> Scalar | None:
+    def _rank_over_grid(
+        self, node: ast.Rank, st: State, cleared: Context, one_member: Callable[[], Scalar]
+    ) -> Scalar | None:
         """The rank as a window over the grid's own rows, where that is exact; else None.
 
         It is exact when the rank is taken in a grid cell's own context over one of its grid
@@ -461,7 +467,9 @@ class Lowering:
         reaches and the cell's equalities on ``T``'s other grid columns; so every member is a
         grid row among those sharing the other grid columns, and that context is the same on all
         of them. A grid row is a member exactly where one member is visible in its cell
-        (``is_one``), and its value is the ranked expression in its cell's context."""
+        (``one_member``), and its value is the ranked expression in its cell's context. Where
+        that value is null whenever no member is visible in the cell (see ``nullness``), the
+        value alone tells the members, and the members need not be counted."""
         frame = st.frame
         if frame.kind != "grid" or st.scope is not None:
             return None
@@ -486,10 +494,14 @@ class Lowering:
         value = self.lower(node.expr, State(frame, valued, st.locals, None, st.measure))
         out = self.own(frame, self.names.fresh("rank"))
         partition = tuple(n for n in frame.key if n != mine)
+        if DeadCell(frame, table, st.ctx.relevant_to(self.reach(table))).dead(value):
+            frame.requests.append(GridRankRequest(out, value, node.ascending, partition, _text(node)))
+            return Col(out)
+        is_one = one_member()
         frame.requests.append(
             GridRankRequest(out, Case(((is_one, value),)), node.ascending, partition, _text(node))
         )
-        return Col(out)
+        return Case(((is_one, Col(out)),))
 
     # --- given ------------------------------------------------------------------------------------
 

@@ -21,7 +21,7 @@ from collections.abc import Iterable
 
 from measureport.plan import scalar as S
 from measureport.plan.context import CondFilter, EqFilter, Filter, ShiftFilter, TableCol
-from measureport.plan.frames import AggRequest, Frame, IterRequest, Request, RowSet
+from measureport.plan.frames import AggRequest, Frame, GridRankRequest, IterRequest, Request, RowSet
 
 _STRICT_FUNCS = ("abs", "round")
 _ALL_ARGS_FUNCS = ("coalesce", "least", "greatest")
@@ -89,6 +89,8 @@ class DeadCell:
                 found = self.rows_dead(request.rows)
             elif isinstance(request, IterRequest) and request.child.rows is not None:
                 found = self.rows_dead(request.child.rows)
+            elif isinstance(request, GridRankRequest):
+                found = self.dead(request.value)  # a null value ranks null
             self._memo[name] = found
         return found
 
