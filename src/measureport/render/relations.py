@@ -11,13 +11,14 @@ from __future__ import annotations
 
 import dataclasses
 from collections import Counter
+from collections.abc import Sequence
 from dataclasses import dataclass, field
 
 from sqlglot import exp
 
 from measureport.plan import nodes as N
 from measureport.plan.scalar import Exists, Scalar
-from measureport.render.scalars import ScalarRenderer, sql_type
+from measureport.render.scalars import ColumnRef, ScalarRenderer, sql_type
 
 
 @dataclass
@@ -25,7 +26,7 @@ class Piece:
     """An open select: a FROM item, joins, WHERE conditions and the SQL of each plan column."""
 
     source: exp.Expression
-    columns: dict[str, exp.Expression]
+    columns: dict[str, exp.Expression | ColumnRef]
     joins: list[exp.Join] = field(default_factory=list)
     where: list[exp.Expression] = field(default_factory=list)
 
@@ -35,15 +36,16 @@ class Piece:
 
 
 def _ident(name: str) -> exp.Identifier:
-    return exp.to_identifier(name, quoted=True)
+    return exp.Identifier(this=name, quoted=True)
 
 
 def _alias(name: str) -> exp.TableAlias:
     return exp.TableAlias(this=_ident(name))
 
 
-def _column(name: str, table: str) -> exp.Column:
-    return exp.Column(this=_ident(name), table=_ident(table))
+def _built(value: exp.Expression | ColumnRef) -> exp.Expression:
+    """The node of a piece's column, for the one place that takes it."""
+    return value.build() if isinstance(value, ColumnRef) else value
 
 
 def _named(value: exp.Expression, name: str) -> exp.Alias:
@@ -100,11 +102,11 @@ class StatementRenderer:
         return self.closed(node)
 
     def _select(
-        self, piece: Piece, items: list[tuple[str, exp.Expression]], distinct: bool = False
+        self, piece: Piece, items: Sequence[tuple[str, exp.Expression | ColumnRef]], distinct: bool = False
     ) -> exp.Select:
         if not items:
             items = [("__one", exp.Literal.number("1"))]
-        select = exp.Select(expressions=[_named(value, name) for name, value in items])
+        select = exp.Select(expressions=[_named(_built(value), name) for name, value in items])
         select = select.from_(piece.source, copy=False)
         for join in piece.joins:
             select = select.join(join, copy=False)
@@ -133,7 +135,7 @@ class StatementRenderer:
             table = exp.Table(this=parts[-1], db=parts[-2] if len(parts) > 1 else None, alias=_alias(alias))
             if len(parts) > 2:
                 table.set("catalog", parts[-3])
-            return Piece(table, {name: _column(col, alias) for name, col in node.items})
+            return Piece(table, {name: ColumnRef(alias, col) for name, col in node.items})
         if isinstance(node, N.Filter):
             piece = self.piece(node.input)
             piece.where.append(self._scalars(piece).render(node.predicate))
@@ -154,12 +156,12 @@ class StatementRenderer:
             source: exp.Expression = relation
         else:
             source = exp.Table(this=relation.this.copy(), alias=_alias(alias))
-        return Piece(source, {c: _column(c, alias) for c in columns})
+        return Piece(source, {c: ColumnRef(alias, c) for c in columns})
 
     def _join(self, node: N.Join) -> Piece:
         left = self.piece(node.left)
         right = self.piece(node.right)
-        computed = any(not isinstance(v, exp.Column) for v in right.columns.values())
+        computed = any(not isinstance(v, ColumnRef | exp.Column) for v in right.columns.values())
         if not right.is_bare or (node.kind == "left" and computed):
             # An outer join must see the right side's computed values as columns, so that an
             # unmatched row gets nulls rather than the computed value.

@@ -11,13 +11,27 @@ import datetime as dt
 import functools
 import math
 from collections.abc import Callable, Mapping
+from typing import NamedTuple
 
 from sqlglot import exp
 
 from measureport.errors import MeasureportError
 from measureport.plan import scalar as S
 
-ColumnLookup = Mapping[str, exp.Expression]
+
+class ColumnRef(NamedTuple):
+    """A column of a FROM item, by the item's alias: its sqlglot node is built where it is used,
+    so the many columns a relation offers and nobody reads cost no nodes."""
+
+    table: str
+    name: str
+
+    def build(self) -> exp.Column:
+        table = exp.Identifier(this=self.table, quoted=True)
+        return exp.Column(this=exp.Identifier(this=self.name, quoted=True), table=table)
+
+
+ColumnLookup = Mapping[str, exp.Expression | ColumnRef]
 SubqueryRenderer = Callable[[object], exp.Expression]
 
 _COMPARE: dict[str, type[exp.Expression]] = {
@@ -93,6 +107,8 @@ class ScalarRenderer:
 
     def _Col(self, node: S.Col) -> exp.Expression:
         value = self.columns[node.name]
+        if isinstance(value, ColumnRef):
+            return value.build()
         if isinstance(value, exp.Column) and set(value.args) <= {"this", "table"}:
             # A fresh reference is much cheaper to build than a deep copy of one.
             table = value.args.get("table")
