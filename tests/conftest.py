@@ -1,9 +1,13 @@
-"""Fixtures every suite may use: one throwaway PostgreSQL server for the whole test session."""
+"""Fixtures every suite may use: one throwaway PostgreSQL server and one local Spark session for
+the whole test session. Each is defined here only: a session fixture imported into a second
+conftest would be a second instance, and two instances would share (and both stop) one JVM."""
 
 from __future__ import annotations
 
 import os
+import shutil
 from collections.abc import Iterator
+from typing import Any
 
 import pytest
 
@@ -28,3 +32,19 @@ def postgres_url() -> Iterator[str]:
         yield server.url
     finally:
         server.stop()
+
+
+@pytest.fixture(scope="session")
+def spark_session() -> Iterator[Any]:
+    """One local Spark session (local[2]) for every Spark test; the JVM ends with the session."""
+    pytest.importorskip("pyspark")
+    if shutil.which("java") is None and not os.environ.get("JAVA_HOME"):
+        pytest.skip("Spark needs Java (17), and there is none on this machine")
+    from measureport.engines.spark import end_local_jvm, local_session
+
+    session = local_session()
+    try:
+        yield session
+    finally:
+        session.stop()
+        end_local_jvm()

@@ -1,5 +1,5 @@
-"""The real-engine fixtures (one PostgreSQL server, one Spark session) shared with tests/realengines,
-and the time each engine's part of this suite took, printed at the end of the run."""
+"""The engine fixture shared with tests/realengines (the server and the Spark session are in
+tests/conftest.py), and the time each engine's part of this suite took, printed at the end."""
 
 from __future__ import annotations
 
@@ -9,9 +9,9 @@ from collections.abc import Iterator
 
 import pytest
 
-from realengines.conftest import open_engine, spark_session
+from realengines.conftest import open_engine
 
-__all__ = ["open_engine", "spark_session"]
+__all__ = ["open_engine"]
 
 SECONDS: dict[str, float] = defaultdict(float)
 

@@ -7,9 +7,7 @@ session) are marked slow, and run in `.ci/run`'s slow suite.
 
 from __future__ import annotations
 
-import os
 import re
-import shutil
 from collections import defaultdict
 from collections.abc import Iterator
 from typing import Any
@@ -20,22 +18,6 @@ from measureport.engines.sqlengine import SqlEngine
 from measureport.model.tabledata import Dataset
 from measureport.semantics.bound import BoundModel
 from realengines.engines import ALL_ENGINES, OpenEngine
-
-
-@pytest.fixture(scope="session")
-def spark_session() -> Iterator[Any]:
-    """One local Spark session (local[2]) for every Spark test; the JVM ends with the session."""
-    pytest.importorskip("pyspark")
-    if shutil.which("java") is None and not os.environ.get("JAVA_HOME"):
-        pytest.skip("Spark needs Java (17), and there is none on this machine")
-    from measureport.engines.spark import end_local_jvm, local_session
-
-    session = local_session()
-    try:
-        yield session
-    finally:
-        session.stop()
-        end_local_jvm()
 
 
 @pytest.fixture
