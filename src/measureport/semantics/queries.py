@@ -2,12 +2,12 @@
 
 from __future__ import annotations
 
-from collections.abc import Sequence
+from collections.abc import Iterator, Mapping, Sequence
 
 from measureport.errors import NO_SPAN, MeasureportError, Span, remember_source
 from measureport.language import ast
 from measureport.query import Query
-from measureport.semantics.bound import BoundModel
+from measureport.semantics.bound import BoundMeasure, BoundModel, ValueType
 from measureport.semantics.conditions import bind_report_filter
 from measureport.semantics.findings import Findings
 from measureport.semantics.sources import parse_inline
@@ -54,8 +54,23 @@ def view_query(bound: BoundModel, view_name: str) -> Query:
 
 
 def _binder_for(bound: BoundModel, findings: Findings) -> ExpressionBinder:
-    types = {name: measure.type for name, measure in bound.measures.items()}
-    return ExpressionBinder(bound.model, findings, bound.measures.keys(), types)
+    return ExpressionBinder(bound.model, findings, bound.measures.keys(), _MeasureTypes(bound.measures))
+
+
+class _MeasureTypes(Mapping[str, ValueType]):
+    """The type of each bound measure, read where asked (a query names few of many measures)."""
+
+    def __init__(self, measures: Mapping[str, BoundMeasure]) -> None:
+        self._measures = measures
+
+    def __getitem__(self, name: str) -> ValueType:
+        return self._measures[name].type
+
+    def __iter__(self) -> Iterator[str]:
+        return iter(self._measures)
+
+    def __len__(self) -> int:
+        return len(self._measures)
 
 
 def _check_measures(bound: BoundModel, measures: Sequence[str], findings: Findings) -> None:
