@@ -27,6 +27,7 @@ measure doubled = sum(boardings.riders * 2 for each boardings)
 measure stop_rank = rank(riders over stops.name)
 measure nested_minus = riders - (boardings_n - faults)
 measure busiest_day = max(riders for each days.day)
+measure riders_or_zero = coalesce(riders, 0)
 """
 
 
@@ -99,14 +100,31 @@ def group_width(select: exp.Select) -> int:
     return len(select.args["group"].expressions)
 
 
-def test_plain_aggregate_is_grouped_by_the_grid_column_and_joined_null_safe(tram: Differential) -> None:
+def test_plain_aggregate_is_grouped_by_the_grid_column_and_its_groups_are_the_rows(
+    tram: Differential,
+) -> None:
+    # The riders are null in any cell without boardings, so the aggregate's groups are the
+    # result rows: no grid of the members (no DISTINCT over stops, no join back).
     tree = parsed(tram, ["riders"], ["stops.name"])
     (aggregate,) = grouped_selects(tree, "boardings")
     assert group_width(aggregate) == 1
     assert any(isinstance(n, exp.Sum) for n in aggregate.find_all(exp.Sum))
-    # The grid (with the empty member) is joined to the aggregate with IS NOT DISTINCT FROM.
-    assert tree.find(exp.NullSafeEQ) is not None
+    assert tree.find(exp.NullSafeEQ) is None
+    assert not any(s.args.get("distinct") for s in tree.find_all(exp.Select))
     assert tree.args.get("order") is not None
+
+
+def test_a_value_without_rows_is_joined_to_the_grid_null_safe(tram: Differential) -> None:
+    # coalesce(riders, 0) is 0 at stops without boardings (Quarry): the grid of the stops (with
+    # the empty member) is built and joined to the aggregate with IS NOT DISTINCT FROM.
+    tree = parsed(tram, ["riders_or_zero"], ["stops.name"])
+    (aggregate,) = grouped_selects(tree, "boardings")
+    assert group_width(aggregate) == 1
+    assert tree.find(exp.NullSafeEQ) is not None
+    assert any(s.args.get("distinct") for s in tree.find_all(exp.Select))
+    rows = tram.check(["riders_or_zero"], ["stops.name"]).rows
+    # Quarry has no boardings: 0, not dropped.
+    assert ("Quarry", 0) in rows
 
 
 def test_clear_on_a_grid_column_of_a_sum_is_a_window_over_the_grid(tram: Differential) -> None:

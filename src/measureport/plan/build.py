@@ -39,7 +39,7 @@ from measureport.plan.nodes import (
     Project,
 )
 from measureport.plan.nodes import Filter as FilterNode
-from measureport.plan.nullness import DeadCell
+from measureport.plan.nullness import DeadCell, MissingGroup
 from measureport.plan.rowsets import RowSets, RowsRelation, plain_equality
 from measureport.plan.scalar import (
     AggCall,
@@ -150,6 +150,9 @@ class Builder:
         every measure (``values``) is null at the null member's cell unless the dimension has a
         row there, the null member is held without asking (see ``nullness``)."""
         self.rowsets.always_empty = set()
+        own_rows = self._rows_that_are_the_grid(frame, values)
+        if own_rows is not None:
+            return self.build_frame(frame, self._grid_of_groups(frame, *own_rows), skip=own_rows[0])
         for table in {t for t, _ in frame.grid_columns.values()}:
             members = report.relevant_to(self.lowering.reach(table))
             if DeadCell(frame, table, members).all_dead(values):
@@ -178,6 +181,54 @@ class Builder:
         self._counting = False
         return self.build_frame(frame, grid())
 
+    def _rows_that_are_the_grid(
+        self, frame: Frame, values: Sequence[Scalar]
+    ) -> tuple[RowSet, list[AggRequest]] | None:
+        """An aggregate of the grid frame whose groups can stand for the grid: grouped by exactly
+        the grid columns (the cells' own equalities, nothing correlated), with every measure
+        null wherever it has no group. Its groups are cells of visible rows, so each is a grid
+        row; every other grid row has only null measures and would be dropped (rule 6)."""
+        if not frame.grid_columns:
+            return None
+        by_stage = self._by_stage(frame)
+        if 1 not in by_stage:
+            return None
+        for rows, requests in self._groups_of(frame, 1, by_stage[1]).aggregates.items():
+            if rows.where is not None or rows.distinct is not None or rows.with_empty:
+                continue
+            if any(columns_used(r.value) for r in requests):
+                continue
+            keyed = [f for f in rows.filters if f.frame_columns()]
+            cells = {
+                f.value.name
+                for f in keyed
+                if isinstance(f, EqFilter)
+                and isinstance(f.value, Col)
+                and frame.grid_columns.get(f.value.name) == (f.table, f.column)
+            }
+            if len(keyed) != len(frame.grid_columns) or cells != set(frame.grid_columns):
+                continue
+            if MissingGroup(frame, [r.out for r in requests]).all_dead(values):
+                return rows, requests
+        return None
+
+    def _grid_of_groups(self, frame: Frame, rows: RowSet, requests: list[AggRequest]) -> PlanNode:
+        """The groups of an aggregate as the grid's rows (see ``_rows_that_are_the_grid``)."""
+        built = self._aggregate(frame, None, rows, requests)
+        rr = built.rows
+        words = self._describe_rows(frame, rows, rr) + (
+            "; its groups are the result's rows (every measure is null where it has none),"
+            " so no grid of members is built"
+        )
+        for request in requests:
+            self.strategies.append(Strategy(request, words, list(requests), self.lowering.askers))
+        items: list[tuple[str, Scalar]] = []
+        for i, (_, value) in enumerate(rr.keys):
+            assert isinstance(value, Col)
+            items.append((value.name, Col(f"k{i}")))
+        items += [(r.out, Col(f"v{i}")) for i, r in enumerate(requests)]
+        return Project(built.node, tuple(items), label="grid of the groups")
+
     def _frames_built(self, frame: Frame) -> list[Frame]:
         """``frame`` and the iteration and rank frames inside it that become relations of their own."""
         found = [frame]
@@ -188,14 +239,17 @@ class Builder:
                 found += self._frames_built(request.child)
         return found
 
-    def build_frame(self, frame: Frame, base: PlanNode) -> PlanNode:
-        """``base`` with a column for every request of ``frame``."""
+    def build_frame(self, frame: Frame, base: PlanNode, skip: RowSet | None = None) -> PlanNode:
+        """``base`` with a column for every request of ``frame`` (but those of the aggregate of
+        ``skip``, which ``base`` holds)."""
         by_stage = self._by_stage(frame)
         relation = base
         for stage in sorted(by_stage):
             before = relation
             found = self._groups_of(frame, stage, by_stage[stage])
             for rows, requests in found.aggregates.items():
+                if stage == 1 and rows == skip:
+                    continue
                 relation = self._join_aggregate(frame, relation, before, rows, requests)
             for window in found.windows:
                 relation = window.apply(relation)

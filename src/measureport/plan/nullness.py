@@ -120,3 +120,18 @@ class DeadCell:
             case S.BetweenValues(operand=TableCol(), low=low, high=high, negated=False):
                 return self.dead(low) or self.dead(high)
         return False
+
+
+class MissingGroup(DeadCell):
+    """Nullness at a grid row for which the aggregate that computes the frame columns ``outs``
+    has no group: those columns are null there, and so is every value that needs one of them."""
+
+    def __init__(self, grid: Frame, outs: Iterable[str]) -> None:
+        super().__init__(grid, "", ())
+        self.outs = set(outs)
+
+    def _dead_column(self, name: str) -> bool:
+        if name in self.outs:
+            return True
+        request = self.producing.get(name)
+        return isinstance(request, GridRankRequest) and self.dead(request.value)
