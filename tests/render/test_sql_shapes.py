@@ -28,6 +28,8 @@ measure stop_rank = rank(riders over stops.name)
 measure nested_minus = riders - (boardings_n - faults)
 measure busiest_day = max(riders for each days.day)
 measure riders_or_zero = coalesce(riders, 0)
+measure stop_weighted =
+  sum(boardings.riders * (riders given clear boardings but boardings.stop_id) for each boardings)
 """
 
 
@@ -39,11 +41,17 @@ def tram() -> Iterator[Differential]:
     diff.close()
 
 
-def parsed(tram: Differential, measures: list[str], by: list[str], totals: bool = False) -> exp.Select:
+def parsed(
+    tram: Differential,
+    measures: list[str],
+    by: list[str],
+    totals: bool = False,
+    where: list[str] | None = None,
+) -> exp.Select:
     """The statement for the query, parsed back from its DuckDB text (and checked against the
     reference on the way, so every shape below is also a right answer)."""
-    tram.check(measures, by, totals=totals)
-    sql = tram.engine.compile(tram.query(measures, by, totals=totals)).sql
+    tram.check(measures, by, where or [], totals=totals)
+    sql = tram.engine.compile(tram.query(measures, by, where or [], totals=totals)).sql
     statements = sqlglot.parse(sql, read="duckdb")
     assert len(statements) == 1
     tree = statements[0]
@@ -288,3 +296,26 @@ def test_empty_members_are_told_from_the_iteration_aggregate_over_every_row(tram
     # Red: 14 on 2024-02-02 (the twins); Blue: 4; the empty line: 6 on 2025-03-01.
     assert result.rows == [("Blue", 4), ("Red", 14), (None, 6)]
     assert tram.engine.compile(tram.query(["busiest_day"], ["lines.name"])).scans["boardings"] == 1
+
+
+def test_a_filter_on_the_pointed_dimension_narrows_the_rows_before_the_pre_aggregation(
+    tram: Differential,
+) -> None:
+    # Zone A's riders by line: boardings are joined to the keys of the zone A stops (an inner
+    # join: the empty member never passes a zone test) before they are grouped by stop_id.
+    # Red: Harbour 18; Blue: Depot 4.
+    tree = parsed(tram, ["riders"], ["lines.name"], where=['stops.zone = "A"'])
+    (partial,) = [s for s in tree.find_all(exp.Select) if is_partial(s, "boardings")]
+    joins = partial.args.get("joins") or []
+    assert len(joins) == 1 and joins[0].args.get("kind") == "INNER"
+    assert tram.check(["riders"], ["lines.name"], ['stops.zone = "A"']).rows == [("Blue", 4), ("Red", 18)]
+
+
+def test_a_table_iteration_groups_its_rows_by_the_columns_its_body_reads(tram: Differential) -> None:
+    # Each boarding's riders times its stop's riders (the rest of the row cleared): the rows are
+    # grouped by riders and stop_id alone. Stop 1: 18 * 18; stop 2: 22 * 22; stop 3: 4 * 4;
+    # the unknown stop 9: 6 * 6; the null stop: 2 * 2; 324 + 484 + 16 + 36 + 4 = 864.
+    tree = parsed(tram, ["stop_weighted"], [])
+    weighted = [s for s in tree.find_all(exp.Select) if any(e.alias == "w" for e in s.expressions)]
+    assert [group_width(s) for s in weighted] == [2]
+    assert tram.check(["stop_weighted"]).rows == [(864,)]

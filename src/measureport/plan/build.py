@@ -430,6 +430,10 @@ class Builder:
         """The parent frame's rows, each repeated for its current rows in ``child``."""
         assert child.rows is not None
         read = child.subtree_columns_read() | set(child.key)
+        if child.kind == "table" and not child.children:
+            # Rows that agree on every column the body reads are bound alike (their weights add
+            # up), so they are grouped by those columns alone; nested frames keep the whole key.
+            read = child.subtree_columns_read() | (set(child.key) - set(child.env.values()))
         env = sorted(((tc, name) for tc, name in child.env.items() if name in read), key=lambda item: item[1])
         wanted = {TableCol(t, c) for (t, c), _ in env}
         rr = self.rowsets.rows_relation(child.rows, parent_rel, [], wanted)

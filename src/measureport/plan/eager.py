@@ -21,15 +21,17 @@ from dataclasses import dataclass
 
 from measureport.model.graph import reachable
 from measureport.model.schema import Model
-from measureport.plan.context import EqFilter, Filter, ShiftFilter, TableCol, table_columns
+from measureport.plan.context import CondFilter, EqFilter, Filter, ShiftFilter, TableCol, table_columns
 from measureport.plan.frames import RowSet
-from measureport.plan.nodes import Aggregate, PlanNode, Scan
+from measureport.plan.nodes import Aggregate, Join, PlanNode, Project, Scan
 from measureport.plan.nodes import Filter as FilterNode
+from measureport.plan.predicates import rejects_nulls
 from measureport.plan.scalar import (
     AggCall,
     Arith,
     Case,
     Col,
+    Compare,
     Const,
     IsNullTest,
     Scalar,
@@ -50,6 +52,7 @@ class EagerParts:
     node: PlanNode
     group: list[TableCol]
     finals: list[Scalar]
+    narrowed_by: str | None = None  # the dimension whose passing keys the rows were joined to
 
 
 def eager_parts(
@@ -115,6 +118,10 @@ def eager_parts(
     predicate = conjunction([local(f, columns) for f in static_own])
     if predicate is not None:
         source = FilterNode(source, predicate)
+    (key,) = group
+    narrowed = _narrow_by_dimension(model, rows, key, columns, canonical, scan, local)
+    if narrowed is not None:
+        source = Join(source, narrowed[0], "inner", narrowed[1])
     keys = tuple((columns[tc], Col(columns[tc])) for tc in group)
     values_out: list[tuple[str, Scalar]] = [(ROWS, AggCall("count_rows"))]
     for call, name in partials.items():
@@ -122,7 +129,47 @@ def eager_parts(
         argument = transform(call.argument, lambda n: Col(columns[n]) if isinstance(n, TableCol) else None)
         values_out.append((name, AggCall(call.func, argument)))
     node = Aggregate(source, keys, tuple(values_out), label=f"{table} by the keys it points with")
-    return EagerParts(node, group, finals)
+    return EagerParts(node, group, finals, narrowed[2] if narrowed is not None else None)
+
+
+def _narrow_by_dimension(
+    model: Model,
+    rows: RowSet,
+    key: TableCol,
+    columns: dict[TableCol, str],
+    canonical: Callable[[str, str], str],
+    scan: Callable[[str, list[str]], Scan],
+    local: Callable[[Filter, dict[TableCol, str]], Scalar],
+) -> tuple[PlanNode, Scalar, str] | None:
+    """The keys of the dimension that ``key`` points at whose rows pass the row set's fixed
+    filters on it, to join the rows to before grouping them (so a selective filter on a
+    dimension narrows the rows first), with the join condition and the dimension's name.
+
+    Exact for filters that never keep an empty member: a row whose key finds no row fails them
+    anyway, and the key is unique on the dimension, so the join keeps each passing row once."""
+    relationship = next(
+        (r for r in model.relationships_from(rows.table) if r.many_column == key.column), None
+    )
+    if relationship is None:
+        return None
+    dim = relationship.one_table
+    chosen = [
+        f
+        for f in rows.filters
+        if f.table == dim
+        and isinstance(f, CondFilter)
+        and not f.frame_columns()
+        and rejects_nulls(f.predicate)
+    ]
+    if not chosen:
+        return None
+    read = {relationship.one_column} | {tc.column for f in chosen for tc in table_columns(f.predicate)}
+    dim_columns = {TableCol(dim, c): canonical(dim, c) for c in read}
+    dim_key = dim_columns[TableCol(dim, relationship.one_column)]
+    predicate = conjunction([local(f, dim_columns) for f in chosen])
+    assert predicate is not None
+    passing = Project(FilterNode(scan(dim, sorted(read)), predicate), ((dim_key, Col(dim_key)),))
+    return passing, Compare("=", Col(columns[key]), Col(dim_key)), dim
 
 
 def _filter_columns(f: Filter) -> set[TableCol]:

@@ -26,16 +26,13 @@ from measureport.plan.lower import Lowering
 from measureport.plan.names import Names
 from measureport.plan.nodes import Distinct, Join, NullRow, OneRow, PlanNode, Project, Scan, UnionAll
 from measureport.plan.nodes import Filter as FilterNode
+from measureport.plan.predicates import rejects_nulls
 from measureport.plan.scalar import (
-    And,
-    BetweenValues,
     Col,
     Compare,
     Const,
     Exists,
-    InValues,
     IsNullTest,
-    LikeTest,
     NullSafeEq,
     Or,
     Scalar,
@@ -280,7 +277,7 @@ class RowSets:
         for rel in sorted(self.model.relationships_from(rows.table), key=str):
             table = rel.one_table
             on_it = [f for f in dynamic if f.table == table]
-            if not any(isinstance(f, CondFilter) and _rejects_nulls(f.predicate) for f in on_it):
+            if not any(isinstance(f, CondFilter) and rejects_nulls(f.predicate) for f in on_it):
                 continue
             if any(isinstance(f, ShiftFilter) for f in on_it):
                 continue
@@ -449,11 +446,14 @@ class RowSets:
         if parts is None:
             return None
         (key,) = parts.group
+        by = str(key)
+        if parts.narrowed_by is not None:
+            by += f" (of the rows whose {parts.narrowed_by} row passes its filters)"
         if any(_is_correlated(f) for f in rows.filters):
             assert frame_rel is not None
             finals_read = set().union(*(table_columns(f) for f in parts.finals))
             rr = self.rows_relation(rows, frame_rel, [], finals_read, eager=parts)
-            rr.pre_aggregated_by = str(key)
+            rr.pre_aggregated_by = by
             return rr, [rr.local(f) for f in parts.finals]
         needed = set(parts.group)
         for final in parts.finals:
@@ -474,7 +474,7 @@ class RowSets:
         def local(expr: Scalar) -> Scalar:
             return transform(expr, lambda n: Col(columns[n]) if isinstance(n, TableCol) else None)
 
-        return RowsRelation(node, keys, columns, pre_aggregated_by=str(key)), [local(f) for f in parts.finals]
+        return RowsRelation(node, keys, columns, pre_aggregated_by=by), [local(f) for f in parts.finals]
 
 
 @dataclass
@@ -489,21 +489,6 @@ class Dimension:
     @property
     def table(self) -> str:
         return self.via.one_table
-
-
-def _rejects_nulls(predicate: Scalar) -> bool:
-    """Whether ``predicate`` can never be true on a row whose table columns are all null (so
-    it never keeps an empty member): a test of a bare column, or an AND holding one."""
-    match predicate:
-        case And(items=items):
-            return any(_rejects_nulls(item) for item in items)
-        case Compare(left=left, right=right):
-            return isinstance(left, TableCol) or isinstance(right, TableCol)
-        case BetweenValues(operand=TableCol(), negated=False) | InValues(operand=TableCol(), negated=False):
-            return True
-        case LikeTest(operand=TableCol(), negated=False):
-            return True
-    return False
 
 
 def _is_correlated(f: Filter) -> bool:
