@@ -28,6 +28,7 @@ from measureport.plan.frames import (
     Request,
     RowSet,
 )
+from measureport.plan.fusion import fuse_narrowed
 from measureport.plan.lower import Lowering
 from measureport.plan.names import Names
 from measureport.plan.nodes import (
@@ -138,9 +139,23 @@ class Builder:
                 else:
                     others.append(request)
             windows = as_windows(frame, groups, self.names.fresh, self._explain_window)
-            found = StageGroups(groups, windows, others)
+            found = StageGroups(self._fused(groups), windows, others)
             self._stage_groups[key] = found
         return found
+
+    def _fused(self, groups: dict[RowSet, list[AggRequest]]) -> dict[RowSet, list[AggRequest]]:
+        """``groups`` with narrowed row sets computed in their wider one's aggregate (see
+        ``fusion``), unless that would cost the wider one its eager pre-aggregation."""
+        moved: list[tuple[AggRequest, AggRequest]] = []
+
+        def worth(rows: RowSet, before: list[Scalar], after: list[Scalar]) -> bool:
+            eager = self.rowsets.eager_relation
+            return eager(rows, before) is None or eager(rows, after) is not None
+
+        fused = fuse_narrowed(groups, lambda old, new: moved.append((old, new)), worth)
+        for old, new in moved:
+            self.lowering.askers[id(new)] = self.lowering.askers.get(id(old), [])
+        return fused
 
     def build_grid(
         self, frame: Frame, grid: Callable[[], PlanNode], values: Sequence[Scalar], report: Context
