@@ -8,6 +8,7 @@ from sqlglot import exp
 from sqlglot.errors import ErrorLevel
 
 from measureport.plan.nodes import Result
+from measureport.render.pruning import prune_unread_columns
 from measureport.render.relations import StatementRenderer
 
 
@@ -52,4 +53,5 @@ def render_statement(root: Result, hidden_last: bool = False) -> RenderedStateme
     """Render the plan under ``root`` with sqlglot builders (no SQL text is assembled)."""
     renderer = StatementRenderer(root)
     expression = renderer.statement()
+    prune_unread_columns(expression)
     return RenderedStatement(expression, dict(renderer.scans), hidden_last)
