@@ -29,6 +29,8 @@ measure nested_minus = riders - (boardings_n - faults)
 measure busiest_day = max(riders for each days.day)
 measure riders_or_zero = coalesce(riders, 0)
 measure zone_a_boardings = boardings_n given narrow stops.zone = "A"
+measure zone_a_or_zero = coalesce(boardings_n given narrow stops.zone = "A", 0)
+measure zone_b_or_zero = coalesce(boardings_n given narrow stops.zone = "B", 0)
 measure big_boardings = riders given narrow boardings.riders > 5, narrow stops.zone = "A"
 measure stop_weighted =
   sum(boardings.riders * (riders given clear boardings but boardings.stop_id) for each boardings)
@@ -349,3 +351,17 @@ def test_narrowings_of_narrowings_share_the_scan_and_agree(tram: Differential) -
             tram.check([*measures, *more], ["stops.name"], where)
             tram.check([*measures, *more], [], where)
             tram.check([*measures, *more], ["stops.zone", "stops.name"], where, totals=True)
+
+
+def test_two_narrowings_of_one_row_set_share_a_scan_that_is_also_the_grid(tram: Differential) -> None:
+    # Zone A and zone B boardings by fare, zero where none: both are narrowings of the
+    # boardings by fare, computed in that one aggregate; fare is a column of the fact, which
+    # has no empty member, so that aggregate's groups are the grid's rows too (no scan of the
+    # fares apart). Fare 1.0: the unknown stops (no zone); 2.0: Harbour (A) in 2024; 2.5:
+    # Harbour twice; 3.0: Market (B) three times; null fare: Depot (A).
+    measures = ["zone_a_or_zero", "zone_b_or_zero"]
+    result = tram.check(measures, ["boardings.fare"])
+    assert result.rows == [(1.0, 0, 0), (2.0, 1, 0), (2.5, 2, 0), (3.0, 0, 3), (None, 1, 0)]
+    assert tram.engine.compile(tram.query(measures, ["boardings.fare"])).scans["boardings"] == 1
+    tram.check(measures, ["boardings.fare"], ["days.year = 2025"])
+    tram.check(measures, ["boardings.fare", "stops.zone"], ["days.year = 2025"], totals=True)

@@ -16,6 +16,7 @@ from measureport.model.schema import Model
 from measureport.plan.context import (
     Context,
     EqFilter,
+    Filter,
     TableCol,
     table_columns,
 )
@@ -165,7 +166,7 @@ class Builder:
         every measure (``values``) is null at the null member's cell unless the dimension has a
         row there, the null member is held without asking (see ``nullness``)."""
         self.rowsets.always_empty = set()
-        own_rows = self._rows_that_are_the_grid(frame, values)
+        own_rows = self._rows_that_are_the_grid(frame, values, report)
         if own_rows is not None:
             return self.build_frame(frame, self._grid_of_groups(frame, *own_rows), skip=own_rows[0])
         for table in {t for t, _ in frame.grid_columns.values()}:
@@ -197,12 +198,15 @@ class Builder:
         return self.build_frame(frame, grid())
 
     def _rows_that_are_the_grid(
-        self, frame: Frame, values: Sequence[Scalar]
+        self, frame: Frame, values: Sequence[Scalar], report: Context
     ) -> tuple[RowSet, list[AggRequest]] | None:
         """An aggregate of the grid frame whose groups can stand for the grid: grouped by exactly
         the grid columns (the cells' own equalities, nothing correlated), with every measure
         null wherever it has no group. Its groups are cells of visible rows, so each is a grid
-        row; every other grid row has only null measures and would be dropped (rule 6)."""
+        row; every other grid row has only null measures and would be dropped (rule 6). Or,
+        for a grid on columns of one table that no table points at (so without an empty
+        member), an aggregate of exactly that table's rows under the report filters: its groups
+        are the grid's rows, whatever the measures."""
         if not frame.grid_columns:
             return None
         by_stage = self._by_stage(frame)
@@ -225,7 +229,16 @@ class Builder:
                 continue
             if MissingGroup(frame, [r.out for r in requests]).all_dead(values):
                 return rows, requests
+            if self._groups_are_the_grid(frame, rows, report, keyed):
+                return rows, requests
         return None
+
+    def _groups_are_the_grid(self, frame: Frame, rows: RowSet, report: Context, keyed: list[Filter]) -> bool:
+        tables = {t for t, _ in frame.grid_columns.values()}
+        if tables != {rows.table} or self.lowering.is_dimension(rows.table):
+            return False
+        members = self.lowering.rowset(report, rows.table, with_empty=False)
+        return set(rows.filters) - set(keyed) == set(members.filters)
 
     def _grid_of_groups(self, frame: Frame, rows: RowSet, requests: list[AggRequest]) -> PlanNode:
         """The groups of an aggregate as the grid's rows (see ``_rows_that_are_the_grid``)."""

@@ -30,6 +30,8 @@ def fuse_narrowed(
     ``worth(rows, values before, values after)`` holds; ``renamed(old, new)`` is told of every
     request so rewritten."""
     fused: dict[RowSet, list[AggRequest]] = {rows: list(requests) for rows, requests in groups.items()}
+    for common in _common_bases(list(groups)):
+        fused.setdefault(common, [])
     for narrow in sorted(groups, key=lambda r: -len(r.filters)):
         for wide in _bases(narrow, fused):
             extra = [f for f in narrow.filters if f not in set(wide.filters)]
@@ -46,7 +48,25 @@ def fuse_narrowed(
                 renamed(old, new)
             fused[wide] += moved
             break
-    return fused
+    return {rows: requests for rows, requests in fused.items() if requests}
+
+
+def _common_bases(groups: list[RowSet]) -> list[RowSet]:
+    """For two row sets that differ only by fixed conditions on each side, the row set of the
+    filters they share, so that both can be narrowings of one aggregate."""
+    found: list[RowSet] = []
+    for i, one in enumerate(groups):
+        for other in groups[i + 1 :]:
+            if one.table != other.table or not (_plain(one) and _plain(other)):
+                continue
+            shared = set(one.filters) & set(other.filters)
+            differing = (set(one.filters) | set(other.filters)) - shared
+            if not differing or not all(_fixed_condition(f) for f in differing):
+                continue
+            common = RowSet(one.table, False, tuple(f for f in one.filters if f in shared))
+            if common not in groups and common not in found:
+                found.append(common)
+    return found
 
 
 def _bases(narrow: RowSet, fused: dict[RowSet, list[AggRequest]]) -> list[RowSet]:
