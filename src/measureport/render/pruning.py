@@ -77,27 +77,39 @@ class _Scope:
         self.reads_all = False
         self.nested: list[exp.Select] = []
         derived = {id(source) for source in self.sources if isinstance(source, exp.Subquery)}
-        stack: list[exp.Expression] = [select]
+        stack: list[exp.Expression] = []
+        for key, value in select.args.items():
+            if key != "with_":
+                _push(stack, value, derived)
         while stack:
             node = stack.pop()
-            if isinstance(node, exp.Column):
-                if node.table:
-                    self.reads[node.table].add(node.name)
-                else:
-                    self.reads_all = True
+            kind = type(node)
+            if kind is exp.Identifier or kind is exp.Literal:
                 continue
-            if isinstance(node, exp.Star) and node.parent is select:
-                self.reads_all = True  # SELECT * (a * inside COUNT(*) reads no column)
-            for key, value in node.args.items():
-                if node is select and key == "with_":
-                    continue
-                for child in value if isinstance(value, list) else (value,):
-                    if not isinstance(child, exp.Expression) or id(child) in derived:
-                        continue
-                    if isinstance(child, exp.Select):
-                        self.nested.append(child)
-                    else:
-                        stack.append(child)
+            if isinstance(node, exp.Column):
+                table, column = node.args.get("table"), node.args.get("this")
+                if type(table) is not exp.Identifier:
+                    self.reads_all = True
+                elif type(column) is exp.Identifier:
+                    self.reads[table.this].add(column.this)
+                else:
+                    self.reads[table.this].add(node.name)
+            elif isinstance(node, exp.Select):
+                self.nested.append(node)
+            else:
+                if kind is exp.Star and node.parent is select:
+                    self.reads_all = True  # SELECT * (a * inside COUNT(*) reads no column)
+                for value in node.args.values():
+                    _push(stack, value, derived)
+
+
+def _push(stack: list[exp.Expression], value: object, skipped: set[int]) -> None:
+    """Put the nodes of one argument of a node on ``stack``, but for those in ``skipped``."""
+    if isinstance(value, exp.Expression):
+        if id(value) not in skipped:
+            stack.append(value)
+    elif isinstance(value, list):
+        stack.extend(v for v in value if isinstance(v, exp.Expression) and id(v) not in skipped)
 
 
 def _union_parts(operation: exp.SetOperation) -> Iterator[exp.Select]:
