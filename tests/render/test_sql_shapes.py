@@ -365,3 +365,12 @@ def test_two_narrowings_of_one_row_set_share_a_scan_that_is_also_the_grid(tram: 
     assert tram.engine.compile(tram.query(measures, ["boardings.fare"])).scans["boardings"] == 1
     tram.check(measures, ["boardings.fare"], ["days.year = 2025"])
     tram.check(measures, ["boardings.fare", "stops.zone"], ["days.year = 2025"], totals=True)
+
+
+def test_no_pre_aggregation_by_a_key_the_grid_groups_by_anyway(tram: Differential) -> None:
+    # By the stops' key, the partial rows by stop_id would be the groups themselves: the plain
+    # join and one aggregate. Stop 1: 10 + 5 + 3; stop 2: 8 + 7 + 7; stop 3: 4; Quarry none;
+    # the empty member: the unknown stop 9 and the null stop, 6 + 2.
+    tree = parsed(tram, ["riders"], ["stops.stop_id"])
+    assert not [s for s in tree.find_all(exp.Select) if is_partial(s, "boardings")]
+    assert tram.check(["riders"], ["stops.stop_id"]).rows == [(1, 18), (2, 22), (3, 4), (None, 8)]

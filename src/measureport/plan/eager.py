@@ -107,6 +107,10 @@ def eager_parts(
         # Partial rows by two keys or more may be nearly as many as the rows: joining first is
         # then the cheaper plan.
         return None
+    (key,) = group
+    pointed = next((r for r in model.relationships_from(table) if r.many_column == key.column), None)
+    if pointed is not None and _grouped_by_key(rows, pointed.one_table, pointed.one_column):
+        return None  # grouped by the pointed dimension's key anyway: the partial rows would be the groups
     read = {tc.column for tc in group}
     for call in partials:
         read |= {tc.column for tc in table_columns(call)}
@@ -118,7 +122,6 @@ def eager_parts(
     predicate = conjunction([local(f, columns) for f in static_own])
     if predicate is not None:
         source = FilterNode(source, predicate)
-    (key,) = group
     narrowed = _narrow_by_dimension(model, rows, key, columns, canonical, scan, local)
     if narrowed is not None:
         source = Join(source, narrowed[0], "inner", narrowed[1])
@@ -130,6 +133,14 @@ def eager_parts(
         values_out.append((name, AggCall(call.func, argument)))
     node = Aggregate(source, keys, tuple(values_out), label=f"{table} by the keys it points with")
     return EagerParts(node, group, finals, narrowed[2] if narrowed is not None else None)
+
+
+def _grouped_by_key(rows: RowSet, dim: str, key: str) -> bool:
+    """Whether the row set is grouped by the key of ``dim`` (a cell's or a bound row's value)."""
+    return any(
+        isinstance(f, EqFilter) and f.frame_columns() and (f.table, f.column) == (dim, key)
+        for f in rows.filters
+    )
 
 
 def _narrow_by_dimension(
