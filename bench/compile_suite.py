@@ -4,10 +4,12 @@ plain measures of one context need; and the peak memory of running the generated
 
 from __future__ import annotations
 
+import gc
 import sys
-from collections.abc import Sequence
+from collections.abc import Callable, Sequence
 from dataclasses import dataclass
 from functools import partial
+from typing import TypeVar
 
 from bench.demo_suite import demo_at
 from bench.measure_texts import GeneratedMeasure, generate_measures, measure_file_text
@@ -42,6 +44,14 @@ GENERATED_COUNT = 1_000
 
 
 Batch = tuple[Sequence[str], Sequence[str]]
+T = TypeVar("T")
+
+
+def timed_alone(run: Callable[[], T]) -> tuple[T, float]:
+    """``timed_call`` after a full garbage collection (not timed): the garbage that the parts
+    before left is not collected inside this one, whose own collections are."""
+    gc.collect()
+    return timed_call(run)
 
 
 def compile_all(bound: BoundModel, batches: Sequence[Batch]) -> list[CompiledQuery]:
@@ -57,8 +67,8 @@ def compile_all(bound: BoundModel, batches: Sequence[Batch]) -> list[CompiledQue
 def bind_generated(model: Model, generated: Sequence[GeneratedMeasure]) -> tuple[BoundModel, float, float]:
     """The demo model bound with the generated measures added; seconds to parse and to bind."""
     text = measure_file_text(list(generated))
-    parsed, parse_s = timed_call(lambda: parse_measures(text, "<generated measures>"))
-    bound, bind_s = timed_call(lambda: bind_model(model, [*read_measure_files(model), parsed]))
+    parsed, parse_s = timed_alone(lambda: parse_measures(text, "<generated measures>"))
+    bound, bind_s = timed_alone(lambda: bind_model(model, [*read_measure_files(model), parsed]))
     return bound, parse_s, bind_s
 
 
@@ -91,8 +101,8 @@ def run_compile_suite(count: int, repeat: int, run_rides: int) -> Section:
     demo_bound = bind_model(model)
     demo_batches = [(tuple(demo_bound.measures), by) for by in GROUPINGS]
     print("  compile: the demo's measures over five groupings ...", file=sys.stderr, flush=True)
-    _, demo_cold = timed_call(lambda: compile_all(demo_bound, demo_batches))
-    demo_warm = median([timed_call(lambda: compile_all(demo_bound, demo_batches))[1] for _ in range(repeat)])
+    _, demo_cold = timed_alone(lambda: compile_all(demo_bound, demo_batches))
+    demo_warm = median([timed_alone(lambda: compile_all(demo_bound, demo_batches))[1] for _ in range(repeat)])
     _, demo_traced = traced_peak(lambda: compile_all(demo_bound, demo_batches))
 
     generated = generate_measures(count)
@@ -101,11 +111,12 @@ def run_compile_suite(count: int, repeat: int, run_rides: int) -> Section:
     size = -(-count // len(GROUPINGS))
     batches = [(names[k * size:(k + 1) * size], by) for k, by in enumerate(GROUPINGS)]
     print(f"  compile: {count} generated measures in {len(batches)} queries ...", file=sys.stderr, flush=True)
-    batch_runs = [timed_call(lambda: compile_all(bound, batches)) for _ in range(max(1, min(repeat, 3)))]
+    batch_runs = [timed_alone(lambda: compile_all(bound, batches)) for _ in range(max(1, min(repeat, 3)))]
     batch_s = median([spent for _, spent in batch_runs])
     compiled_batches = batch_runs[0][0]
     _, batch_traced = traced_peak(lambda: compile_all(bound, batches))
     print(f"  compile: {count} generated measures one by one ...", file=sys.stderr, flush=True)
+    gc.collect()
     alone = compile_each_alone(bound, generated)
     print("  compile: scans of the plain measures, and running the generated queries ...", file=sys.stderr,
           flush=True)
@@ -116,13 +127,19 @@ def run_compile_suite(count: int, repeat: int, run_rides: int) -> Section:
     compiled_ok = [t for t in alone if not t.error]
     alone_total = sum(t.seconds for t in compiled_ok)
     body = [
-        "Compile means lowering a query to a plan and rendering its DuckDB SQL text. The demo's "
+        "Compile means building the query from its measure names and grouping columns, lowering it "
+        "to a plan, rendering it and writing its DuckDB SQL text (not formatted for reading); it "
+        "includes the one pass of Python's garbage collector that ends each compile (the collector "
+        "is paused while a query compiles), and not the parsing and binding of the measure files, "
+        "which have rows of their own. Each timed part starts after a full collection (not "
+        "timed), so that garbage the parts before it left is not collected inside it. The demo's "
         f"{len(demo_bound.measures)} measures are compiled as one query per grouping, five groupings "
         f"({', '.join(' + '.join(g) or 'grand total' for g in GROUPINGS)}). The {count} generated "
         "measures (texts of our own over the demo model, the families below taken in turn; "
         "bench/measure_texts.py) are parsed and bound with the demo's, then compiled in "
         f"{len(batches)} queries of up to {size} measures (one per grouping) and each alone. Peak "
-        "compile memory is the peak of Python allocations (tracemalloc) during a separate run. Each "
+        "compile memory is the peak of Python allocations (tracemalloc) during a separate run, "
+        "garbage kept until a query's collector pass included. Each "
         "measure alone is compiled once, so its slowest time can include a pause of the machine.",
         "",
         *table(
@@ -136,6 +153,8 @@ def run_compile_suite(count: int, repeat: int, run_rides: int) -> Section:
                 ("generated: bind them with the demo's", seconds(bind_s), "–"),
                 (f"generated: compile all in {len(batches)} queries (median of {len(batch_runs)})",
                  seconds(batch_s), mib(batch_traced)),
+                (f"generated: parse, bind and compile all in {len(batches)} queries, the rows above added",
+                 seconds(parse_s + bind_s + batch_s), "–"),
                 (f"generated: compile each alone, {len(compiled_ok)} queries in all",
                  seconds(alone_total), "–"),
             ],
