@@ -17,6 +17,7 @@ from measureport.plan.context import (
     Context,
     EqFilter,
     Filter,
+    ShiftFilter,
     TableCol,
     table_columns,
 )
@@ -156,6 +157,12 @@ class Builder:
         fused = fuse_narrowed(groups, lambda old, new: moved.append((old, new)), worth)
         for old, new in moved:
             self.lowering.askers[id(new)] = self.lowering.askers.get(id(old), [])
+            said = self.lowering.explained.get(old.out)
+            fused_words = (
+                "computed in the same scan as the wider rows' aggregate, each aggregate over the rows"
+                " that also pass the narrowing conditions (null where none does)"
+            )
+            self.lowering.explained[new.out] = f"{said}; {fused_words}" if said else fused_words
         return fused
 
     def build_grid(
@@ -168,7 +175,8 @@ class Builder:
         self.rowsets.always_empty = set()
         own_rows = self._rows_that_are_the_grid(frame, values, report)
         if own_rows is not None:
-            return self.build_frame(frame, self._grid_of_groups(frame, *own_rows), skip=own_rows[0])
+            rows, requests, why = own_rows
+            return self.build_frame(frame, self._grid_of_groups(frame, rows, requests, why), skip=rows)
         for table in {t for t, _ in frame.grid_columns.values()}:
             members = report.relevant_to(self.lowering.reach(table))
             if DeadCell(frame, table, members).all_dead(values):
@@ -199,8 +207,8 @@ class Builder:
 
     def _rows_that_are_the_grid(
         self, frame: Frame, values: Sequence[Scalar], report: Context
-    ) -> tuple[RowSet, list[AggRequest]] | None:
-        """An aggregate of the grid frame whose groups can stand for the grid: grouped by exactly
+    ) -> tuple[RowSet, list[AggRequest], str] | None:
+        """An aggregate of the grid frame whose groups can stand for the grid (and why): grouped by exactly
         the grid columns (the cells' own equalities, nothing correlated), with every measure
         null wherever it has no group. Its groups are cells of visible rows, so each is a grid
         row; every other grid row has only null measures and would be dropped (rule 6). Or,
@@ -217,6 +225,8 @@ class Builder:
                 continue
             if any(columns_used(r.value) for r in requests):
                 continue
+            if any(isinstance(f, ShiftFilter) for f in rows.filters):
+                continue  # shifted days are joined in as parameters
             keyed = [f for f in rows.filters if f.frame_columns()]
             cells = {
                 f.value.name
@@ -228,9 +238,10 @@ class Builder:
             if len(keyed) != len(frame.grid_columns) or cells != set(frame.grid_columns):
                 continue
             if MissingGroup(frame, [r.out for r in requests]).all_dead(values):
-                return rows, requests
+                return rows, requests, "every measure is null where it has none"
             if self._groups_are_the_grid(frame, rows, report, keyed):
-                return rows, requests
+                why = f"they are the combinations of {rows.table}'s rows under the report filters"
+                return rows, requests, why
         return None
 
     def _groups_are_the_grid(self, frame: Frame, rows: RowSet, report: Context, keyed: list[Filter]) -> bool:
@@ -240,16 +251,16 @@ class Builder:
         members = self.lowering.rowset(report, rows.table, with_empty=False)
         return set(rows.filters) - set(keyed) == set(members.filters)
 
-    def _grid_of_groups(self, frame: Frame, rows: RowSet, requests: list[AggRequest]) -> PlanNode:
+    def _grid_of_groups(self, frame: Frame, rows: RowSet, requests: list[AggRequest], why: str) -> PlanNode:
         """The groups of an aggregate as the grid's rows (see ``_rows_that_are_the_grid``)."""
         built = self._aggregate(frame, None, rows, requests)
         rr = built.rows
-        words = self._describe_rows(frame, rows, rr) + (
-            "; its groups are the result's rows (every measure is null where it has none),"
-            " so no grid of members is built"
-        )
+        described = self._describe_rows(frame, rows, rr).replace(" and joined back on it", "")
+        words = f"{described}; its groups are the result's rows ({why}), so no grid of members is built"
         for request in requests:
-            self.strategies.append(Strategy(request, words, list(requests), self.lowering.askers))
+            extra = self.lowering.explained.get(request.out)
+            said = f"{words}; {extra}" if extra else words
+            self.strategies.append(Strategy(request, said, list(requests), self.lowering.askers))
         items: list[tuple[str, Scalar]] = []
         for i, (_, value) in enumerate(rr.keys):
             assert isinstance(value, Col)
