@@ -18,6 +18,7 @@ from sqlglot import exp
 
 from measureport.plan import nodes as N
 from measureport.plan.scalar import Exists, Scalar
+from measureport.render.needs import kept, needed_columns
 from measureport.render.scalars import ColumnRef, ScalarRenderer, sql_type
 
 
@@ -59,6 +60,7 @@ class StatementRenderer:
     def __init__(self, root: N.Result) -> None:
         self.root = root
         self.uses = _count_uses(root)
+        self.needs = needed_columns(root, _exists_nodes)
         self.cte_names: dict[N.PlanNode, str] = {}
         self.ctes: list[exp.CTE] = []
         self.taken: set[str] = set()
@@ -187,7 +189,11 @@ class StatementRenderer:
         return left
 
     def _close_piece(self, piece: Piece, node: N.PlanNode) -> exp.Select:
-        return self._select(piece, [(c, piece.columns[c]) for c in node.columns])
+        return self._select(piece, [(c, piece.columns[c]) for c in self._kept(node)])
+
+    def _kept(self, node: N.PlanNode) -> list[str]:
+        """The columns of ``node`` that its readers use (render/needs.py)."""
+        return kept(node.columns, self.needs.get(node))
 
     # --- closed selects ------------------------------------------------------------------------------
 
@@ -216,10 +222,11 @@ class StatementRenderer:
         if isinstance(node, N.Aggregate):
             piece = self.piece(node.input)
             scalars = self._scalars(piece)
-            keys = [(name, scalars.render(value)) for name, value in node.keys]
-            values = [(name, scalars.render(value)) for name, value in node.values]
-            select = self._select(piece, keys + values)
-            if keys:
+            wanted = set(self._kept(node))
+            named = (*node.keys, *node.values)
+            items = [(name, scalars.render(value)) for name, value in named if name in wanted]
+            select = self._select(piece, items)
+            if node.keys:
                 select = select.group_by(*[scalars.render(value) for _, value in node.keys], copy=False)
             return select
         if isinstance(node, N.Distinct):
@@ -254,8 +261,8 @@ class StatementRenderer:
             this=kinds[node.func](this=scalars.render(node.value)),
             partition_by=[scalars.render(p) for p in node.partition] or None,
         )
-        items = [(c, piece.columns[c]) for c in node.input.columns] + [(node.name, window)]
-        return self._select(piece, items)
+        columns = {**{c: piece.columns[c] for c in node.input.columns}, node.name: window}
+        return self._select(piece, [(c, columns[c]) for c in self._kept(node)])
 
     def _dense_rank(self, node: N.DenseRank) -> exp.Select:
         piece = self.piece(node.input)
@@ -273,8 +280,8 @@ class StatementRenderer:
             ],
             default=window,
         )
-        items = [(c, piece.columns[c]) for c in node.input.columns] + [(node.name, ranked)]
-        return self._select(piece, items)
+        columns = {**{c: piece.columns[c] for c in node.input.columns}, node.name: ranked}
+        return self._select(piece, [(c, columns[c]) for c in self._kept(node)])
 
 
 def _count_uses(root: N.PlanNode) -> dict[N.PlanNode, int]:
