@@ -11,7 +11,7 @@ from __future__ import annotations
 
 import dataclasses
 from collections import Counter
-from collections.abc import Sequence
+from collections.abc import Callable, Sequence
 from dataclasses import dataclass, field
 
 from sqlglot import exp
@@ -59,8 +59,16 @@ class StatementRenderer:
 
     def __init__(self, root: N.Result) -> None:
         self.root = root
-        self.uses = _count_uses(root)
-        self.needs = needed_columns(root, _exists_nodes)
+        exists: dict[N.PlanNode, list[N.PlanNode]] = {}
+
+        def exists_in(node: N.PlanNode) -> list[N.PlanNode]:
+            found = exists.get(node)
+            if found is None:
+                found = exists[node] = _exists_nodes(node)
+            return found
+
+        self.uses = _count_uses(root, exists_in)
+        self.needs = needed_columns(root, exists_in)
         self.cte_names: dict[N.PlanNode, str] = {}
         self.ctes: list[exp.CTE] = []
         self.taken: set[str] = set()
@@ -284,7 +292,9 @@ class StatementRenderer:
         return self._select(piece, [(c, columns[c]) for c in self._kept(node)])
 
 
-def _count_uses(root: N.PlanNode) -> dict[N.PlanNode, int]:
+def _count_uses(
+    root: N.PlanNode, exists_nodes: Callable[[N.PlanNode], list[N.PlanNode]]
+) -> dict[N.PlanNode, int]:
     """How many parents use each distinct node (equal nodes counted as one)."""
     uses: Counter[N.PlanNode] = Counter()
     seen: set[N.PlanNode] = set()
@@ -294,7 +304,7 @@ def _count_uses(root: N.PlanNode) -> dict[N.PlanNode, int]:
         if node in seen:
             continue
         seen.add(node)
-        children = list(node.inputs()) + _exists_nodes(node)
+        children = list(node.inputs()) + exists_nodes(node)
         for child in children:
             uses[child] += 1
             stack.append(child)
