@@ -13,6 +13,10 @@ Every statement runs with ``join_use_nulls = 1`` (an unmatched outer-join row ha
 the type's default 0 or '') and ``aggregate_functions_null_for_empty = 1`` (an aggregate over no
 rows is null, as in SQL and in the language's rule 5), set once on the connection.
 
+Where one expression mixes integers and floats (``CASE``, ``coalesce``, ``UNION ALL``), ClickHouse
+finds no exact common type and makes the column a ``Variant(Float64, Int64)``, which chdb hands
+back as text: such a column's values are read back as the numbers they hold.
+
 Type mapping (model type → ClickHouse column → Python value read back); every column is
 ``Nullable``:
 
@@ -37,6 +41,7 @@ from __future__ import annotations
 
 import decimal
 import io
+import re
 import uuid
 from collections.abc import Sequence
 from typing import TYPE_CHECKING, Any
@@ -87,6 +92,28 @@ def _undecimal(value: Any) -> Any:
     # written scale cannot tell a decimal from a whole number; and a ClickHouse decimal result
     # only ever comes from decimal data (sums of Int64 stay Int64), which is a float here.
     return float(value) if isinstance(value, decimal.Decimal) else value
+
+
+_NUMBER_TYPE = re.compile(r"(Nullable\()?(U?Int\d+|Float\d+)\)?")
+
+
+def is_numeric_variant(type_name: str) -> bool:
+    """True for a ``Variant(...)`` type whose every alternative is an integer or float type."""
+    if not (type_name.startswith("Variant(") and type_name.endswith(")")):
+        return False
+    alternatives = [part.strip() for part in type_name[len("Variant(") : -1].split(",")]
+    return all(_NUMBER_TYPE.fullmatch(part) for part in alternatives)
+
+
+def _variant_number(value: Any) -> Any:
+    # chdb hands a Variant value back as its text; ClickHouse writes a Float64 in the shortest
+    # text that reads back as the same double, so the number is exact either way.
+    if not isinstance(value, str):
+        return _undecimal(value)
+    try:
+        return int(value)
+    except ValueError:
+        return float(value)
 
 
 class ClickHouseEngine(SqlEngine):
@@ -141,9 +168,16 @@ class ClickHouseEngine(SqlEngine):
         try:
             self.cursor.execute(sql)
             rows: Sequence[Sequence[Any]] = self.cursor.fetchall()
+            types = [str(column[1]) for column in self.cursor.description or ()]
         except Exception as exc:  # chdb raises its own error types, and RuntimeError
             raise self.run_error(exc) from None
-        return [tuple(_undecimal(value) for value in row) for row in rows]
+        variants = {i for i, name in enumerate(types) if is_numeric_variant(name)}
+        return [
+            tuple(
+                _variant_number(value) if i in variants else _undecimal(value) for i, value in enumerate(row)
+            )
+            for row in rows
+        ]
 
     def shutdown(self) -> None:
         try:
