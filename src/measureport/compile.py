@@ -112,5 +112,5 @@ def compile_query(bound: BoundModel, query: Query, dialect: str = "duckdb") -> C
     with collection_paused():
         planned = plan_query(bound, query)
         neutral = render_statement(planned.executable, hidden_last=True)
-        rendered = replace(neutral, expression=localise(neutral.expression, profile))
+        rendered = replace(neutral, expression=localise(neutral.expression, profile, in_place=True))
     return CompiledQuery(query, profile.name, profile.sqlglot, bound, planned, rendered)

@@ -348,15 +348,20 @@ TRANSFORMS: dict[type[exp.Expression], Callable[[DialectForms, exp.Expression], 
 def _rewrite(node: exp.Expression, forms: DialectForms) -> exp.Expression:
     for key, value in list(node.args.items()):
         if isinstance(value, exp.Expression):
-            node.set(key, _rewrite(value, forms))
+            rewritten = _rewrite(value, forms)
+            if rewritten is not value:
+                node.set(key, rewritten)
         elif isinstance(value, list):
-            node.set(key, [_rewrite(v, forms) if isinstance(v, exp.Expression) else v for v in value])
+            items = [_rewrite(v, forms) if isinstance(v, exp.Expression) else v for v in value]
+            if any(a is not b for a, b in zip(items, value, strict=True)):
+                node.set(key, items)
     transform = TRANSFORMS.get(type(node))
     return transform(forms, node) if transform is not None else node
 
 
-def localise(expression: exp.Select, profile: DialectProfile) -> exp.Select:
-    """A copy of ``expression`` with every construct in the forms ``profile``'s engine runs."""
-    result = _rewrite(expression.copy(), DialectForms(profile))
+def localise(expression: exp.Select, profile: DialectProfile, in_place: bool = False) -> exp.Select:
+    """``expression`` with every construct in the forms ``profile``'s engine runs: a copy, or
+    with ``in_place`` the tree itself, rewritten (for a tree nobody else holds)."""
+    result = _rewrite(expression if in_place else expression.copy(), DialectForms(profile))
     assert isinstance(result, exp.Select)
     return result
