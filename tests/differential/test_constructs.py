@@ -13,7 +13,7 @@ from collections.abc import Iterator
 import pytest
 
 from differential.harness import Differential
-from differential.tram import tram_network
+from differential.tram import tram_differential
 
 MEASURES = """
 measure boardings_n = count(boardings)
@@ -157,10 +157,7 @@ GROUPS = {"plain": PLAIN, "given": GIVEN, "each": EACH, "scalars": SCALARS, "tim
 
 @pytest.fixture(scope="module")
 def tram() -> Iterator[Differential]:
-    model, data = tram_network()
-    diff = Differential(model, data, MEASURES)
-    yield diff
-    diff.close()
+    yield from tram_differential(MEASURES)
 
 
 @pytest.mark.parametrize("by", GROUPINGS, ids=lambda b: ",".join(b) or "none")

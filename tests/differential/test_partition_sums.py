@@ -10,7 +10,7 @@ from collections.abc import Iterator
 import pytest
 
 from differential.harness import Differential
-from differential.tram import tram_network
+from differential.tram import tram_differential
 
 MEASURES = """
 measure riders = sum(boardings.riders)
@@ -40,10 +40,7 @@ DAYS = 366 + 31 + 28 + 31  # 2024-01-01 .. 2025-03-31
 
 @pytest.fixture(scope="module")
 def tram() -> Iterator[Differential]:
-    model, data = tram_network()
-    diff = Differential(model, data, MEASURES)
-    yield diff
-    diff.close()
+    yield from tram_differential(MEASURES)
 
 
 def iteration_frames(tram: Differential, measure: str, by: list[str]) -> int:

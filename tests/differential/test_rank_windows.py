@@ -12,7 +12,7 @@ import sqlglot
 from sqlglot import exp
 
 from differential.harness import Differential
-from differential.tram import tram_network
+from differential.tram import tram_differential
 
 MEASURES = """
 measure riders = sum(boardings.riders)
@@ -27,10 +27,7 @@ measure stop_rank_or_zero = rank(coalesce(riders, 0) over stops.name)
 
 @pytest.fixture(scope="module")
 def tram() -> Iterator[Differential]:
-    model, data = tram_network()
-    diff = Differential(model, data, MEASURES)
-    yield diff
-    diff.close()
+    yield from tram_differential(MEASURES)
 
 
 def rank_partitions(tram: Differential, measures: list[str], by: list[str]) -> list[int]:

@@ -20,7 +20,9 @@ boardings stop day riders fare            inspections stop day faults
 from __future__ import annotations
 
 import datetime as dt
+from collections.abc import Iterator
 
+from differential.harness import Differential
 from measureport.model.schema import Model
 from measureport.model.tabledata import Dataset
 from support.modelbuild import make
@@ -78,3 +80,14 @@ def tram_network() -> tuple[Model, Dataset]:
             "inspections.day -> days.day",
         ],
     )
+
+
+def tram_differential(measures: str) -> Iterator[Differential]:
+    """The tram network's data with ``measures`` on the reference and DuckDB, for a fixture to
+    ``yield from``; the engine is closed when the fixture ends."""
+    model, data = tram_network()
+    diff = Differential(model, data, measures)
+    try:
+        yield diff
+    finally:
+        diff.close()

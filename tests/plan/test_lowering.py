@@ -9,7 +9,7 @@ from collections.abc import Iterator
 import pytest
 
 from differential.harness import Differential
-from differential.tram import tram_network
+from differential.tram import tram_differential
 from measureport.compile import compile_query
 from measureport.errors import MeasureportError, Span
 from measureport.language import ast
@@ -35,10 +35,7 @@ measure ytd = riders given to_date(days.day, year)
 
 @pytest.fixture(scope="module")
 def tram() -> Iterator[Differential]:
-    model, data = tram_network()
-    diff = Differential(model, data, MEASURES)
-    yield diff
-    diff.close()
+    yield from tram_differential(MEASURES)
 
 
 def test_measures_reading_the_same_rows_in_the_same_context_are_fused(tram: Differential) -> None:

@@ -11,7 +11,7 @@ import sqlglot
 from sqlglot import exp
 
 from differential.harness import Differential
-from differential.tram import tram_network
+from differential.tram import tram_differential
 
 MEASURES = """
 measure riders = sum(boardings.riders)
@@ -39,10 +39,7 @@ measure stop_weighted =
 
 @pytest.fixture(scope="module")
 def tram() -> Iterator[Differential]:
-    model, data = tram_network()
-    diff = Differential(model, data, MEASURES)
-    yield diff
-    diff.close()
+    yield from tram_differential(MEASURES)
 
 
 def parsed(
