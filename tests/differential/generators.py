@@ -421,3 +421,18 @@ def queries(draw: st.DrawFn, schema: Schema) -> tuple[list[str], list[str], bool
             filters.append('cal.month >= "2025-02"')
         where.append(draw(st.sampled_from(filters)))
     return by, where, draw(st.booleans())
+
+
+#: A drawn case: model, data, measure text, measure names, grouping columns, report filters, totals.
+Case = tuple[Model, Dataset, str, list[str], list[str], list[str], bool]
+
+
+@st.composite
+def cases(draw: st.DrawFn) -> Case:
+    """A random model with data, a few measures over it and a query of them."""
+    model, data, schema = draw(models())
+    assert isinstance(schema, Schema)
+    measures = draw(measure_texts(schema))
+    by, where, totals = draw(queries(schema))
+    text = "\n".join(f"measure {name} =\n  {body}" for name, body in measures)
+    return model, data, text, [n for n, _ in measures], by, where, totals

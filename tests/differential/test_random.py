@@ -10,9 +10,8 @@ from __future__ import annotations
 
 import pytest
 from hypothesis import HealthCheck, assume, given, settings
-from hypothesis import strategies as st
 
-from differential.generators import Schema, measure_texts, models, queries
+from differential.generators import Case, cases
 from differential.harness import differences
 from measureport.engines.duckdb import DuckDBEngine
 from measureport.errors import MeasureportError
@@ -33,19 +32,6 @@ DEEP = settings(
     derandomize=True,
     suppress_health_check=[HealthCheck.too_slow, HealthCheck.filter_too_much, HealthCheck.data_too_large],
 )
-
-
-Case = tuple[Model, Dataset, str, list[str], list[str], list[str], bool]
-
-
-@st.composite
-def cases(draw: st.DrawFn) -> Case:
-    model, data, schema = draw(models())
-    assert isinstance(schema, Schema)
-    measures = draw(measure_texts(schema))
-    by, where, totals = draw(queries(schema))
-    text = "\n".join(f"measure {name} =\n  {body}" for name, body in measures)
-    return model, data, text, [n for n, _ in measures], by, where, totals
 
 
 def agree(case: Case) -> None:

@@ -21,7 +21,7 @@ import pytest
 from hypothesis import HealthCheck, Phase, assume, given, settings
 from hypothesis import strategies as st
 
-from differential.generators import Schema, measure_texts, models, queries
+from differential.generators import cases as drawn_cases
 from differential.harness import differences
 from differential_engines.conftest import clock
 from measureport.compile import CompiledQuery, compile_query
@@ -93,12 +93,8 @@ class Case:
 @st.composite
 def cases(draw: st.DrawFn) -> Case:
     """A case as the DuckDB property draws them (tests/differential/test_random.py)."""
-    model, data, schema = draw(models())
-    assert isinstance(schema, Schema)
-    measures = draw(measure_texts(schema))
-    by, where, totals = draw(queries(schema))
-    text = "\n".join(f"measure {name} =\n  {body}" for name, body in measures)
-    return Case(model, data, text, tuple(n for n, _ in measures), tuple(by), tuple(where), totals)
+    model, data, text, names, by, where, totals = draw(drawn_cases())
+    return Case(model, data, text, tuple(names), tuple(by), tuple(where), totals)
 
 
 @dataclass
