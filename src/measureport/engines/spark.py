@@ -9,7 +9,9 @@ shuffle partitions, the session time zone UTC and ANSI mode on (so an overflow o
 zero is an error, never a silent null; the rendering must avoid them); adaptive execution and
 whole-stage code generation are off, since local mode serves test-sized data, where they cost
 more than they save. :meth:`close` stops the
-session and ends the JVM, which otherwise outlives ``stop()``.
+session and ends the JVM, which otherwise outlives ``stop()``. The JVM's own messages (its start-up
+notices and warnings) go to :data:`JVM_LOG` in the temporary folder, not to the terminal; a failed
+statement is reported in one sentence by the adapter.
 
 A cluster is reached through Spark Connect with an ``sc://host:port`` URL (add ``/;token=...``
 and other parameters as Spark Connect defines them). That needs the Spark Connect client
@@ -40,8 +42,13 @@ zone, UTC, whatever the machine's local zone is (``collect()`` would shift them 
 from __future__ import annotations
 
 import logging
+import os
+import sys
+import tempfile
 import warnings
-from collections.abc import Sequence
+from collections.abc import Iterator, Sequence
+from contextlib import contextmanager
+from pathlib import Path
 from typing import TYPE_CHECKING, Any
 
 import pyarrow as pa
@@ -109,7 +116,28 @@ def local_session(master: str = LOCAL_MASTER) -> SparkSession:
     builder = SparkSession.builder.master(master).appName("measureport")
     for key, value in LOCAL_SETTINGS.items():
         builder = builder.config(key, value)
-    return builder.getOrCreate()
+    with errors_of_started_processes_to(JVM_LOG):
+        return builder.getOrCreate()
+
+
+#: Where the local JVM writes its own messages (start-up notices, warnings, Java stacks).
+JVM_LOG = Path(tempfile.gettempdir()) / "measureport-spark.log"
+
+
+@contextmanager
+def errors_of_started_processes_to(path: Path) -> Iterator[None]:
+    """Processes started inside write their standard error to ``path`` for as long as they run;
+    this process's own standard error is restored on leaving."""
+    sys.stderr.flush()
+    saved = os.dup(2)
+    try:
+        with path.open("ab") as log:
+            os.dup2(log.fileno(), 2)
+        yield
+    finally:
+        sys.stderr.flush()
+        os.dup2(saved, 2)
+        os.close(saved)
 
 
 def active_local_session() -> SparkSession | None:
