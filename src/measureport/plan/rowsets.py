@@ -298,17 +298,22 @@ class RowSets:
         node = Distinct(FilterNode(Project(rr.node, tuple(items)), IsNullTest(Col("day"), negated=True)))
         return RowsRelation(node, rr.keys, {}, plain=rr.plain), "day"
 
+    def _relationships_to(self, table: str, needed: set[TableCol]) -> list[Relationship]:
+        """The relationships on the paths from ``table`` to the tables of ``needed``, each once."""
+        paths = reachable(self.model, table)
+        relationships: list[Relationship] = []
+        for tc in sorted(needed, key=str):
+            for rel in paths[tc.table]:
+                if rel not in relationships:
+                    relationships.append(rel)
+        return relationships
+
     def base_rows(
         self, table: str, with_empty: bool, needed: set[TableCol], empty_always: bool = False
     ) -> tuple[PlanNode, dict[TableCol, str]]:
         """The rows of ``table`` (and its empty member when ``with_empty``), left-joined along the
         relationships to every table whose columns are ``needed``."""
-        paths = reachable(self.model, table)
-        relationships = []
-        for tc in sorted(needed, key=str):
-            for rel in paths[tc.table]:
-                if rel not in relationships:
-                    relationships.append(rel)
+        relationships = self._relationships_to(table, needed)
         own: dict[str, list[str]] = defaultdict(list)
 
         def want(t: str, c: str) -> None:
@@ -329,12 +334,7 @@ class RowSets:
     ) -> tuple[PlanNode, dict[TableCol, str]]:
         """``root`` (rows of ``table`` with its needed columns under their canonical names)
         left-joined along the relationships to the tables of ``needed``."""
-        paths = reachable(self.model, table)
-        relationships = []
-        for tc in sorted(needed, key=str):
-            for rel in paths[tc.table]:
-                if rel not in relationships:
-                    relationships.append(rel)
+        relationships = self._relationships_to(table, needed)
         own: dict[str, list[str]] = defaultdict(list)
         for tc in sorted(needed, key=str):
             if tc.table != table and tc.column not in own[tc.table]:
